@@ -1,0 +1,29 @@
+-- Harrow Ridge demo queries (invented scenario, demo/README.md).
+\pset footer off
+\echo '== Focal mechanisms per site: P/T/B axes and mechanism class'
+SELECT site, count(*) AS events,
+       string_agg(DISTINCT mechanism_class(mechanism), ', ') AS classes,
+       round(avg(plunge(p_axis(mechanism)))::numeric, 1) AS mean_p_plunge,
+       round(avg(plunge(t_axis(mechanism)))::numeric, 1) AS mean_t_plunge
+  FROM mechanism GROUP BY site ORDER BY site;
+
+\echo '== First events of each site with axes and the auxiliary nodal plane'
+SELECT event_id, site, mechanism, auxiliary(mechanism) AS auxiliary,
+       p_axis(mechanism) AS p, t_axis(mechanism) AS t, b_axis(mechanism) AS b,
+       mechanism_class(mechanism) AS class
+  FROM (SELECT *, row_number() OVER (PARTITION BY site ORDER BY event_id) rn FROM mechanism) m
+ WHERE rn <= 3 ORDER BY site, event_id;
+
+\echo '== Kagan angle of each event to its site''s reference event (largest first)'
+WITH ref AS (SELECT DISTINCT ON (site) site, mechanism AS ref FROM mechanism ORDER BY site, event_id)
+SELECT site, round(avg(kagan_angle(mechanism, ref))::numeric, 1) AS mean_kagan,
+       round(max(kagan_angle(mechanism, ref))::numeric, 1) AS max_kagan
+  FROM mechanism JOIN ref USING (site) GROUP BY site ORDER BY site;
+
+\echo '== Field faults as written and in canonical form'
+SELECT site, station, fault_as_written, fault_as_written::fault_slip AS canonical,
+       slip_sense(fault_as_written::fault_slip) AS sense
+  FROM field_fault ORDER BY site, station;
+
+\copy (SELECT event_id, site, depth_km, mechanism, auxiliary(mechanism) AS auxiliary, p_axis(mechanism) AS p_axis, t_axis(mechanism) AS t_axis, b_axis(mechanism) AS b_axis, mechanism_class(mechanism) AS class FROM mechanism ORDER BY event_id) TO 'demo-out/mechanism_axes.csv' WITH (FORMAT csv, HEADER)
+\copy (SELECT site, station, fault_as_written, fault_as_written::fault_slip AS canonical, slip_sense(fault_as_written::fault_slip) AS sense FROM field_fault ORDER BY site, station) TO 'demo-out/field_faults_canonical.csv' WITH (FORMAT csv, HEADER)

@@ -1,0 +1,20 @@
+#!/usr/bin/env bash
+# Load and query the invented Harrow Ridge scenario (demo/README.md). Runs
+# inside scripts/with-cluster.sh; writes CSV results under demo-out/.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+OUT="$PWD/demo-out"
+/usr/bin/python3 demo/generate.py "$OUT"
+dropdb --if-exists striae_demo >/dev/null 2>&1 || true
+createdb striae_demo
+export PGDATABASE=striae_demo
+psql -X -q -v ON_ERROR_STOP=1 <<SQL
+CREATE EXTENSION striae;
+CREATE TABLE mechanism (event_id text PRIMARY KEY, site text, depth_km float8, mechanism fault_slip);
+CREATE TABLE field_fault (site text, station text, fault_as_written text);
+\copy mechanism FROM '$OUT/mechanisms.csv' WITH (FORMAT csv, HEADER)
+\copy field_fault FROM '$OUT/field_faults.csv' WITH (FORMAT csv, HEADER)
+SQL
+psql -X -v ON_ERROR_STOP=1 -f demo/queries.sql
+echo "results written to $OUT/"
+ls "$OUT"

@@ -1,0 +1,29 @@
+#!/usr/bin/env bash
+# Install the Debian packages striae needs to build, test, run the demo and the
+# benchmarks. Idempotent; prints nothing when everything is present.
+set -euo pipefail
+
+PACKAGES=(
+  g++ make
+  postgresql-15 postgresql-client-15 postgresql-server-dev-15
+  libeigen3-dev
+  libgtest-dev
+  python3 python3-numpy
+)
+
+missing=()
+for p in "${PACKAGES[@]}"; do
+  if ! dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed"; then
+    missing+=("$p")
+  fi
+done
+[ ${#missing[@]} -eq 0 ] && exit 0
+
+if [ "$(id -u)" -ne 0 ]; then
+  echo "install-deps: missing packages: ${missing[*]}; run this script as root" >&2
+  exit 1
+fi
+echo "install-deps: installing ${missing[*]}"
+export DEBIAN_FRONTEND=noninteractive
+apt-get update -qq
+apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null

@@ -1,0 +1,44 @@
+// striae core: shared definitions for the pure C++17 + Eigen layer.
+// Nothing under src/core may include a PostgreSQL header; the guard below makes
+// that a compile-time error (postgres.h defines PG_VERSION_NUM via pg_config.h).
+#pragma once
+
+#ifdef PG_VERSION_NUM
+#error "src/core must not include PostgreSQL headers"
+#endif
+
+#include <Eigen/Dense>
+#include <stdexcept>
+#include <string>
+
+namespace striae {
+
+using Vec3 = Eigen::Vector3d;
+using Mat3 = Eigen::Matrix3d;
+
+// Error classes the glue maps onto SQLSTATEs (DESIGN.md: class 22 for bad data).
+enum class ErrorKind {
+  InvalidText,       // 22P02 invalid_text_representation
+  OutOfRange,        // 22003 numeric_value_out_of_range
+  InvalidParameter,  // 22023 invalid_parameter_value
+  DataError,         // 22000 data_exception
+  BadState,          // 22000 too, for a malformed aggregate state handed in from SQL
+};
+
+// The one exception type src/core throws on purpose. message is the primary
+// line; detail and hint may be empty.
+struct Error : std::runtime_error {
+  ErrorKind kind;
+  std::string detail;
+  std::string hint;
+  Error(ErrorKind k, const std::string &msg, std::string det = {}, std::string hnt = {})
+      : std::runtime_error(msg), kind(k), detail(std::move(det)), hint(std::move(hnt)) {}
+};
+
+constexpr double kPi = 3.14159265358979323846;
+constexpr double kDeg = kPi / 180.0;  // degrees -> radians
+
+inline double rad(double deg) { return deg * kDeg; }
+inline double deg(double r) { return r / kDeg; }
+
+}  // namespace striae

@@ -1,0 +1,33 @@
+// Near-uniform nodes on the lower hemisphere, shared by every grid result
+// (density grids, right-dihedra grids). Nodes lie on rings of constant plunge
+// 0, s, 2s, ... (s = spacing) up to a single node at plunge 90; a ring at
+// plunge p holds max(1, round(360 cos(p) / s)) nodes evenly spaced in trend
+// from trend 0. The horizontal ring keeps only trends in [0,180) because a
+// horizontal axis and its opposite are the same node. The layout is a pure
+// function of the spacing, so a stored grid keeps only spacing and values.
+#pragma once
+
+#include "orientation.hpp"
+
+#include <vector>
+
+namespace striae {
+
+constexpr double kMinGridSpacing = 0.5;   // degrees
+constexpr double kMaxGridSpacing = 45.0;  // degrees
+
+// Throws InvalidParameter unless spacing is finite and in
+// [kMinGridSpacing, kMaxGridSpacing] and divides 90 into a whole number of
+// rings within 1e-9 (so the top node is exactly at plunge 90).
+void check_grid_spacing(double spacing_deg);
+
+// Number of nodes for a spacing (checked).
+int grid_node_count(double spacing_deg);
+
+// Node lines (trend, plunge), in layout order.
+std::vector<Line> grid_nodes(double spacing_deg);
+
+// The same nodes as NED unit vectors, in the same order.
+std::vector<Vec3> grid_node_vectors(double spacing_deg);
+
+}  // namespace striae

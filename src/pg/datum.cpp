@@ -1,0 +1,32 @@
+// Shared glue helpers: text formatting and array construction.
+#include "datum.hpp"
+
+namespace striae_pg {
+
+char *format_numbers(const double *v, int n) {
+  char *parts[8];
+  size_t len = 0;
+  for (int i = 0; i < n; ++i) {
+    parts[i] = float8out_internal(v[i]);
+    len += std::strlen(parts[i]) + 1;
+  }
+  char *out = static_cast<char *>(palloc(len));
+  char *p = out;
+  for (int i = 0; i < n; ++i) {
+    size_t l = std::strlen(parts[i]);
+    std::memcpy(p, parts[i], l);
+    p += l;
+    *p++ = i + 1 < n ? '/' : '\0';
+    pfree(parts[i]);
+  }
+  return out;
+}
+
+Datum float8_array(const double *v, int n) {
+  Datum *elems = static_cast<Datum *>(palloc(sizeof(Datum) * n));
+  for (int i = 0; i < n; ++i) elems[i] = Float8GetDatum(v[i]);
+  ArrayType *a = construct_array(elems, n, FLOAT8OID, sizeof(float8), FLOAT8PASSBYVAL, TYPALIGN_DOUBLE);
+  return PointerGetDatum(a);
+}
+
+}  // namespace striae_pg

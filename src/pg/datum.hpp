@@ -1,0 +1,34 @@
+// Small helpers shared by the glue files: argument access, result packing and
+// float8-convention text output.
+#pragma once
+
+#include "guard.hpp"
+#include "../core/orientation.hpp"
+
+namespace striae_pg {
+
+// Fixed-size pass-by-reference types are never toasted: the pointer is the value.
+template <class T>
+inline const T *arg(FunctionCallInfo fcinfo, int n) {
+  return reinterpret_cast<const T *>(PG_GETARG_POINTER(n));
+}
+
+template <class T>
+inline Datum result(const T &v) {
+  T *p = static_cast<T *>(palloc(sizeof(T)));
+  *p = v;
+  return PointerGetDatum(p);
+}
+
+// "a/b[/c]" with each number printed by float8out_internal, so output follows
+// float8's conventions (shortest round-trip, or rounding when
+// extra_float_digits <= 0).
+char *format_numbers(const double *v, int n);
+
+// Text datum from a C string.
+inline Datum text_result(const char *s) { return PointerGetDatum(cstring_to_text(s)); }
+
+// A float8[] of n values.
+Datum float8_array(const double *v, int n);
+
+}  // namespace striae_pg

@@ -1,0 +1,60 @@
+// Exception guard: maps src/core errors onto SQLSTATEs (DESIGN.md, "Errors").
+#include "guard.hpp"
+
+#include <exception>
+
+namespace striae_pg {
+
+namespace {
+
+void copy(char *dst, size_t cap, const char *src) noexcept {
+  size_t n = std::strlen(src);
+  if (n >= cap) n = cap - 1;
+  std::memcpy(dst, src, n);
+  dst[n] = '\0';
+}
+
+int sqlstate_of(striae::ErrorKind k) noexcept {
+  switch (k) {
+    case striae::ErrorKind::InvalidText: return ERRCODE_INVALID_TEXT_REPRESENTATION;
+    case striae::ErrorKind::OutOfRange: return ERRCODE_NUMERIC_VALUE_OUT_OF_RANGE;
+    case striae::ErrorKind::InvalidParameter: return ERRCODE_INVALID_PARAMETER_VALUE;
+    case striae::ErrorKind::DataError: return ERRCODE_DATA_EXCEPTION;
+    case striae::ErrorKind::BadState: return ERRCODE_DATA_EXCEPTION;
+  }
+  return ERRCODE_DATA_EXCEPTION;
+}
+
+}  // namespace
+
+void capture_current(Failure &f) noexcept {
+  f.detail[0] = f.hint[0] = '\0';
+  try {
+    throw;
+  } catch (const striae::Error &e) {
+    f.sqlstate = sqlstate_of(e.kind);
+    copy(f.message, sizeof f.message, e.what());
+    copy(f.detail, sizeof f.detail, e.detail.c_str());
+    copy(f.hint, sizeof f.hint, e.hint.c_str());
+  } catch (const std::bad_alloc &) {
+    f.sqlstate = ERRCODE_OUT_OF_MEMORY;
+    copy(f.message, sizeof f.message, "out of memory");
+  } catch (const std::exception &e) {
+    f.sqlstate = ERRCODE_INTERNAL_ERROR;
+    copy(f.message, sizeof f.message, "striae internal error: ");
+    size_t n = std::strlen(f.message);
+    copy(f.message + n, sizeof f.message - n, e.what());
+  } catch (...) {
+    f.sqlstate = ERRCODE_INTERNAL_ERROR;
+    copy(f.message, sizeof f.message, "striae internal error: unknown exception");
+  }
+}
+
+void raise(const Failure &f) {
+  ereport(ERROR, (errcode(f.sqlstate), errmsg("%s", f.message),
+                  f.detail[0] ? errdetail("%s", f.detail) : 0,
+                  f.hint[0] ? errhint("%s", f.hint) : 0));
+  pg_unreachable();
+}
+
+}  // namespace striae_pg

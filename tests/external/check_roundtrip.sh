@@ -1,0 +1,59 @@
+#!/usr/bin/env bash
+# Binary COPY and pg_dump/pg_restore round trips for every type: the data read
+# back must equal the data written, bit for bit (compared with exact '=' and
+# with the text at extra_float_digits = 3). Reference: PostgreSQL's own COPY
+# BINARY and pg_dump (they call the types' send/recv and out/in functions).
+set -euo pipefail
+SRC=striae_rt_src
+DST=striae_rt_dst
+dropdb --if-exists "$SRC"; dropdb --if-exists "$DST"
+createdb "$SRC"; createdb "$DST"
+W="$(mktemp -d)"
+trap 'rm -rf "$W"; dropdb --if-exists "$SRC"; dropdb --if-exists "$DST"' EXIT
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" <<'SQL'
+CREATE EXTENSION striae;
+CREATE TABLE d (i int PRIMARY KEY, p plane, l lineation, f fault_slip);
+-- irrational values exercise the shortest round-trip output
+INSERT INTO d SELECT g, plane((g * 0.7071067811865476) % 360, (g * 0.3183098861837907) % 90),
+                     lineation((g * 1.4142135623730951) % 360, (g * 0.5772156649015329) % 90),
+                     fault_slip((g * 2.718281828459045) % 360, (g * 0.6180339887498949) % 90,
+                                (g * 3.141592653589793) % 360 - 180)
+  FROM generate_series(1, 2000) g;
+INSERT INTO d VALUES (0, NULL, NULL, NULL);
+SQL
+# binary COPY out and in
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "\\copy d TO '$W/d.bin' WITH (FORMAT binary)"
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "CREATE TABLE d2 (LIKE d)" -c "\\copy d2 FROM '$W/d.bin' WITH (FORMAT binary)"
+bad=$(psql -X -At -d "$SRC" -c "SELECT count(*) FROM d FULL JOIN d2 USING (i)
+  WHERE d.p IS DISTINCT FROM d2.p OR d.l IS DISTINCT FROM d2.l OR d.f IS DISTINCT FROM d2.f")
+echo "binary COPY: $bad mismatching rows of 2001"
+[ "$bad" = 0 ]
+# a corrupted binary value is rejected with a clean error (wrong version byte)
+psql -X -q -d "$SRC" -c "CREATE TABLE d3 (LIKE d)" >/dev/null
+/usr/bin/python3 - "$W/d.bin" "$W/bad.bin" <<'PY'
+import sys
+data = bytearray(open(sys.argv[1], "rb").read())
+# header is 19 bytes; first tuple: int16 count, then int32 len + int4, then int32 len 17 + version byte
+off = 19 + 2 + 4 + 4 + 4
+assert data[off] == 1, data[off]
+data[off] = 9
+open(sys.argv[2], "wb").write(data)
+PY
+if out=$(psql -X -q -d "$SRC" -c "\\copy d3 FROM '$W/bad.bin' WITH (FORMAT binary)" 2>&1); then
+  echo "corrupted binary input was accepted"; exit 1
+fi
+echo "$out" | grep -q "invalid binary format version 9 for type plane" || { echo "unexpected: $out"; exit 1; }
+echo "binary COPY: corrupted version byte rejected"
+# dump and restore
+pg_dump -Fc -d "$SRC" -t d -f "$W/d.dump"
+psql -X -q -d "$DST" -c "CREATE EXTENSION striae"
+pg_restore -d "$DST" "$W/d.dump"
+a=$(psql -X -q -At -d "$SRC" -c "SET extra_float_digits = 3" -c "SELECT md5(string_agg(p::text || l::text || f::text, ',' ORDER BY i)) FROM d")
+b=$(psql -X -q -At -d "$DST" -c "SET extra_float_digits = 3" -c "SELECT md5(string_agg(p::text || l::text || f::text, ',' ORDER BY i)) FROM d")
+echo "dump/restore: source $a, restored $b"
+[ "$a" = "$b" ]
+# the text output at default settings also reads back exactly
+bad=$(psql -X -At -d "$DST" -c "SELECT count(*) FROM d WHERE p::text::plane <> p OR l::text::lineation <> l OR f::text::fault_slip <> f")
+echo "text round trip: $bad mismatching rows"
+[ "$bad" = 0 ]
+echo "check_roundtrip: ok"

@@ -1,0 +1,255 @@
+// Unit tests of orientation primitives (src/core/orientation.*).
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include "orientation.hpp"
+
+using namespace striae;
+
+namespace {
+
+void expect_error(ErrorKind k, void (*f)()) {
+  try {
+    f();
+    ADD_FAILURE() << "no error";
+  } catch (const Error &e) {
+    EXPECT_EQ(static_cast<int>(e.kind), static_cast<int>(k)) << e.what();
+  }
+}
+
+// splitmix64, a fixed-sequence generator for reproducible test data.
+struct Rng {
+  uint64_t s;
+  explicit Rng(uint64_t seed) : s(seed) {}
+  uint64_t next() {
+    uint64_t z = (s += 0x9e3779b97f4a7c15ULL);
+    z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
+    z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
+    return z ^ (z >> 31);
+  }
+  double uniform() { return (next() >> 11) * (1.0 / 9007199254740992.0); }
+};
+
+}  // namespace
+
+// Canonical forms (conventions of DESIGN.md; common practice, no source).
+TEST(Canonical, PlaneNormalisation) {
+  Plane p = make_plane(360, 30);
+  EXPECT_EQ(p.strike, 0);
+  p = make_plane(123, 0);  // horizontal: one plane whatever the strike
+  EXPECT_EQ(p.strike, 0);
+  EXPECT_EQ(p.dip, 0);
+  p = make_plane(270, 90);  // vertical: 270/90 is 90/90
+  EXPECT_EQ(p.strike, 90);
+  p = make_plane(-0.0, 10);
+  EXPECT_FALSE(std::signbit(p.strike));
+}
+
+TEST(Canonical, LineNormalisation) {
+  Line l = make_line(300, -30);  // upward: same axis as 120/30
+  EXPECT_EQ(l.trend, 120);
+  EXPECT_EQ(l.plunge, 30);
+  l = make_line(200, 0);  // horizontal axes use trends [0,180)
+  EXPECT_EQ(l.trend, 20);
+  l = make_line(77, 90);  // vertical: trend 0
+  EXPECT_EQ(l.trend, 0);
+  l = make_line(360, 10);
+  EXPECT_EQ(l.trend, 0);
+}
+
+TEST(Canonical, FaultSlipNormalisation) {
+  FaultSlip f = make_fault_slip(10, 20, -180);
+  EXPECT_EQ(f.rake, 180);
+  f = make_fault_slip(270, 90, 30);  // (f,90,r) == (f-180,90,-r)
+  EXPECT_EQ(f.strike, 90);
+  EXPECT_EQ(f.rake, -30);
+  f = make_fault_slip(40, 0, 10);  // horizontal fault: rake from north
+  EXPECT_EQ(f.strike, 0);
+  EXPECT_EQ(f.rake, -30);
+}
+
+TEST(Canonical, Errors) {
+  expect_error(ErrorKind::OutOfRange, [] { make_plane(361, 10); });
+  expect_error(ErrorKind::OutOfRange, [] { make_plane(10, 91); });
+  expect_error(ErrorKind::OutOfRange, [] { make_plane(NAN, 10); });
+  expect_error(ErrorKind::OutOfRange, [] { make_plane(10, INFINITY); });
+  expect_error(ErrorKind::OutOfRange, [] { make_line(10, -91); });
+  expect_error(ErrorKind::OutOfRange, [] { make_line(-1, 10); });
+  expect_error(ErrorKind::OutOfRange, [] { make_fault_slip(10, 10, 181); });
+  expect_error(ErrorKind::OutOfRange, [] { make_fault_slip(10, 10, NAN); });
+  expect_error(ErrorKind::OutOfRange, [] { make_plane_from_dip_direction(400, 10); });
+}
+
+TEST(Canonical, IsCanonical) {
+  EXPECT_TRUE(is_canonical(Plane{110, 64}));
+  EXPECT_FALSE(is_canonical(Plane{200, 90}));
+  EXPECT_FALSE(is_canonical(Plane{-0.0, 10}));
+  EXPECT_FALSE(is_canonical(Line{200, 0}));
+  EXPECT_FALSE(is_canonical(FaultSlip{10, 10, -180}));
+  EXPECT_TRUE(is_canonical(FaultSlip{10, 10, 180}));
+  EXPECT_FALSE(is_canonical(Line{NAN, 0}));
+}
+
+// Vectors: METHODS.md section 1 (Aki & Richards 1980 conventions).
+TEST(Vectors, LineVector) {
+  Vec3 v = line_vector(Line{90, 0});  // east, horizontal
+  EXPECT_NEAR(v.x(), 0, 1e-15);
+  EXPECT_NEAR(v.y(), 1, 1e-15);
+  v = line_vector(Line{0, 90});  // straight down
+  EXPECT_NEAR(v.z(), 1, 1e-15);
+}
+
+TEST(Vectors, PlaneNormalPointsUp) {
+  // 0/45 dips east: the upward normal leans east and up (derived from A&R).
+  Vec3 n = plane_normal(Plane{0, 45});
+  EXPECT_NEAR(n.y(), std::sqrt(0.5), 1e-15);
+  EXPECT_NEAR(n.z(), -std::sqrt(0.5), 1e-15);
+}
+
+TEST(Vectors, PoleExactInDegrees) {
+  Line p = pole(Plane{110, 64});  // trend strike - 90, plunge 90 - dip
+  EXPECT_EQ(p.trend, 20);
+  EXPECT_EQ(p.plunge, 26);
+  Plane q = plane_from_pole(p);
+  EXPECT_EQ(q.strike, 110);
+  EXPECT_EQ(q.dip, 64);
+  // Horizontal plane: pole vertical.
+  EXPECT_EQ(pole(Plane{0, 0}).plunge, 90);
+}
+
+TEST(Vectors, RandomRoundTrips) {
+  Rng r(42);
+  for (int i = 0; i < 2000; ++i) {
+    const double s = 360 * r.uniform(), d = 90 * r.uniform(), k = 360 * r.uniform() - 180;
+    const FaultSlip f = make_fault_slip(s, d, k);
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    EXPECT_NEAR(n.norm(), 1, 1e-14);
+    EXPECT_NEAR(u.norm(), 1, 1e-14);
+    EXPECT_NEAR(n.dot(u), 0, 1e-14);
+    const FaultSlip g = fault_from_vectors(n, u);
+    EXPECT_NEAR(g.strike, f.strike, 1e-9);
+    EXPECT_NEAR(g.dip, f.dip, 1e-9);
+    EXPECT_NEAR(g.rake, f.rake, 1e-9);
+    const Line l = make_line(360 * r.uniform(), 90 * r.uniform());
+    const Line m = vector_line(line_vector(l));
+    EXPECT_LT(angle(l, m), 1e-9);
+  }
+}
+
+TEST(Vectors, VectorLineLowerHemisphere) {
+  Line l = vector_line(Vec3(0, 0, -2));  // up -> vertical down
+  EXPECT_EQ(l.plunge, 90);
+  EXPECT_EQ(l.trend, 0);
+  l = vector_line(Vec3(-1, 0, 0));  // south, horizontal -> 0/0
+  EXPECT_EQ(l.trend, 0);
+  EXPECT_EQ(l.plunge, 0);
+  expect_error(ErrorKind::DataError, [] { vector_line(Vec3(0, 0, 0)); });
+}
+
+TEST(Vectors, RakeSignConvention) {
+  // Pure thrust on 0/45 (rake 90): hanging wall moves up-dip, i.e. west and up
+  // (derived from Aki & Richards conventions: u = cos r s - sin r dd).
+  Vec3 n, u;
+  fault_vectors(FaultSlip{0, 45, 90}, n, u);
+  EXPECT_NEAR(u.y(), -std::sqrt(0.5), 1e-15);
+  EXPECT_NEAR(u.z(), -std::sqrt(0.5), 1e-15);
+  // Rake 0: along strike (north) is sinistral.
+  fault_vectors(FaultSlip{0, 45, 0}, n, u);
+  EXPECT_NEAR(u.x(), 1, 1e-15);
+}
+
+// Geometry (derived; common practice, no source).
+TEST(Geometry, AnglesAreAxial) {
+  EXPECT_NEAR(angle(Line{0, 5}, Line{180, 5}), 10, 1e-12);
+  EXPECT_NEAR(angle(Line{0, 0}, Line{90, 0}), 90, 1e-12);
+  EXPECT_NEAR(angle(Plane{0, 30}, Plane{180, 30}), 60, 1e-12);
+  EXPECT_NEAR(angle(Plane{10, 30}, Plane{10, 30}), 0, 1e-12);
+}
+
+TEST(Geometry, IntersectionAndPlaneThrough) {
+  // Two vertical planes striking N and E meet in the vertical line.
+  Line l = intersection(Plane{0, 90}, Plane{90, 90});
+  EXPECT_EQ(l.plunge, 90);
+  // A plane dipping 30 east and a vertical E-W plane meet in 090/30.
+  l = intersection(Plane{0, 30}, Plane{90, 90});
+  EXPECT_NEAR(l.trend, 90, 1e-9);
+  EXPECT_NEAR(l.plunge, 30, 1e-9);
+  Plane p = plane_through(Line{0, 0}, Line{90, 30});
+  EXPECT_NEAR(p.strike, 0, 1e-9);
+  EXPECT_NEAR(p.dip, 30, 1e-9);
+  expect_error(ErrorKind::DataError, [] { intersection(Plane{10, 20}, Plane{10, 20}); });
+  expect_error(ErrorKind::DataError, [] { plane_through(Line{10, 20}, Line{190, -20}); });
+}
+
+TEST(Geometry, SlipSense) {
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, -90}), "normal");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, 90}), "reverse");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, 0}), "sinistral");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, 180}), "dextral");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, -120}), "normal-dextral");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, 30}), "sinistral-reverse");
+  EXPECT_STREQ(slip_sense(FaultSlip{0, 60, -75}), "normal");
+}
+
+TEST(Sense, Parse) {
+  Sense s = parse_sense("Normal");
+  EXPECT_EQ(s.dip, 1);
+  s = parse_sense("thrust-sinistral");
+  EXPECT_EQ(s.dip, -1);
+  EXPECT_EQ(s.strike, 1);
+  s = parse_sense("right-lateral");
+  EXPECT_EQ(s.strike, -1);
+  s = parse_sense("n d");
+  EXPECT_EQ(s.dip, 1);
+  EXPECT_EQ(s.strike, -1);
+  expect_error(ErrorKind::InvalidParameter, [] { parse_sense("normal reverse"); });
+  expect_error(ErrorKind::InvalidParameter, [] { parse_sense("up"); });
+  expect_error(ErrorKind::InvalidParameter, [] { parse_sense(""); });
+  expect_error(ErrorKind::InvalidParameter, [] { parse_sense("d s"); });
+}
+
+TEST(Sense, FromStriation) {
+  // Down-dip striation on 110/64 (trend 200, plunge 64), normal: rake -90.
+  const Plane p{110, 64};
+  FaultSlip f = fault_from_striation(p, line_vector(Line{200, 64}), parse_sense("normal"), 10);
+  EXPECT_NEAR(f.rake, -90, 1e-9);
+  f = fault_from_striation(p, line_vector(Line{200, 64}), parse_sense("reverse"), 10);
+  EXPECT_NEAR(f.rake, 90, 1e-9);
+  // Horizontal striation along strike, dextral: rake 180.
+  f = fault_from_striation(p, line_vector(Line{110, 0}), parse_sense("dextral"), 10);
+  EXPECT_NEAR(f.rake, 180, 1e-9);
+  // 5 degrees off the plane: projected within the default tolerance.
+  f = fault_from_striation(p, line_vector(Line{200, 59}), parse_sense("n"), 10);
+  EXPECT_NEAR(f.rake, -90, 1e-9);
+  expect_error(ErrorKind::DataError, [] {
+    fault_from_striation(Plane{110, 64}, line_vector(Line{200, 40}), parse_sense("n"), 10);
+  });
+  expect_error(ErrorKind::DataError, [] {
+    fault_from_striation(Plane{110, 64}, line_vector(Line{110, 0}), parse_sense("normal"), 10);
+  });
+  expect_error(ErrorKind::DataError, [] {
+    fault_from_striation(Plane{110, 64}, line_vector(Line{200, 64}), parse_sense("dextral"), 10);
+  });
+  expect_error(ErrorKind::InvalidParameter, [] {
+    fault_from_striation(Plane{110, 64}, line_vector(Line{200, 64}), parse_sense("n"), -1);
+  });
+  // Oblique striation: normal and sinistral hold together, normal and dextral cannot.
+  const Vec3 obl = std::cos(rad(40)) * strike_vector(110) + std::sin(rad(40)) * dip_vector(110, 64);
+  f = fault_from_striation(p, obl, parse_sense("normal sinistral"), 1);
+  EXPECT_NEAR(f.rake, -40, 1e-9);
+  expect_error(ErrorKind::DataError, [] {
+    const Vec3 o = std::cos(rad(40)) * strike_vector(110) + std::sin(rad(40)) * dip_vector(110, 64);
+    fault_from_striation(Plane{110, 64}, o, parse_sense("normal dextral"), 1);
+  });
+}
+
+TEST(Snap, Rounding) {
+  EXPECT_EQ(snap_angle(179.99999999999997), 180);
+  EXPECT_EQ(snap_angle(-1e-17), 0);
+  EXPECT_FALSE(std::signbit(snap_angle(-1e-17)));
+  EXPECT_EQ(norm360(-10), 350);
+  EXPECT_EQ(norm180(190), -170);
+  EXPECT_EQ(norm180(-180), 180);
+}
