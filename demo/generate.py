@@ -83,3 +83,50 @@ with open(os.path.join(out, "field_faults.csv"), "w", newline="") as f:
                 txt = f"{s}/{d}/{round(r)}"
             w.writerow([site, f"{site[:2]}-{j + 1:02d}", txt])
 print(f"demo data written to {out}/")
+
+
+# Bedding and lineations per site and map unit (invented): bedding folded about a
+# site fold axis (poles scattered about the girdle normal to the axis), and a
+# mineral lineation cluster per unit.
+FOLDS = {"KESTREL": (200.0, 12.0), "MARLOW": (350.0, 5.0), "TARN": (60.0, 25.0)}
+UNITS = ["Greywacke", "Slate"]
+
+
+def vec(t, p):
+    t, p = math.radians(t), math.radians(p)
+    return (math.cos(p) * math.cos(t), math.cos(p) * math.sin(t), math.sin(p))
+
+
+def cross(a, b):
+    return (a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0])
+
+
+def unit(a):
+    n = math.sqrt(sum(x * x for x in a))
+    return tuple(x / n for x in a)
+
+
+with open(os.path.join(out, "bedding.csv"), "w", newline="") as f, \
+        open(os.path.join(out, "lineations.csv"), "w", newline="") as g:
+    wb, wl = csv.writer(f), csv.writer(g)
+    wb.writerow(["site", "unit", "bedding"])
+    wl.writerow(["site", "unit", "lineation"])
+    for site, (at, ap) in FOLDS.items():
+        axis = vec(at, ap)
+        e1 = unit(cross(axis, (0.0, 0.0, 1.0)))
+        e2 = unit(cross(axis, e1))
+        for unit_name in UNITS:
+            for _ in range(25):
+                # pole on the girdle normal to the axis, a little off it
+                a = math.radians(rnd.uniform(-70, 70))
+                off = math.radians(rnd.gauss(0, 3))
+                pole = unit(tuple(math.cos(off) * (math.cos(a) * e2[i] + math.sin(a) * e1[i]) + math.sin(off) * axis[i]
+                                  for i in range(3)))
+                if pole[2] < 0:
+                    pole = tuple(-x for x in pole)
+                pt = math.degrees(math.atan2(pole[1], pole[0])) % 360
+                pp = math.degrees(math.asin(max(-1.0, min(1.0, pole[2]))))
+                wb.writerow([site, unit_name, f"{round((pt + 90) % 360, 1)}/{round(90 - pp, 1)}"])
+            lt, lp = (at + 15) % 360, min(85.0, ap + 10)
+            for _ in range(15):
+                wl.writerow([site, unit_name, f"{round((lt + rnd.gauss(0, 6)) % 360, 1)}/{round(min(89.0, abs(lp + rnd.gauss(0, 5))), 1)}"])

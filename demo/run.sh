@@ -12,8 +12,12 @@ psql -X -q -v ON_ERROR_STOP=1 <<SQL
 CREATE EXTENSION striae;
 CREATE TABLE mechanism (event_id text PRIMARY KEY, site text, depth_km float8, mechanism fault_slip);
 CREATE TABLE field_fault (site text, station text, fault_as_written text);
+CREATE TABLE bedding (site text, unit text, bedding plane);
+CREATE TABLE lineation_obs (site text, unit text, lineation lineation);
 \copy mechanism FROM '$OUT/mechanisms.csv' WITH (FORMAT csv, HEADER)
 \copy field_fault FROM '$OUT/field_faults.csv' WITH (FORMAT csv, HEADER)
+\copy bedding FROM '$OUT/bedding.csv' WITH (FORMAT csv, HEADER)
+\copy lineation_obs FROM '$OUT/lineations.csv' WITH (FORMAT csv, HEADER)
 SQL
 psql -X -v ON_ERROR_STOP=1 -f demo/queries.sql
 echo "results written to $OUT/"

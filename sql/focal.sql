@@ -1,6 +1,8 @@
 -- Focal-mechanism geometry: auxiliary plane, P/T/B, moment tensor, Kagan
 -- angle, mechanism class.
+SET client_min_messages = warning;
 CREATE EXTENSION IF NOT EXISTS striae;
+RESET client_min_messages;
 CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
 BEGIN
   EXECUTE q;

@@ -60,3 +60,139 @@ std::vector<Vec3> grid_node_vectors(double s) {
 }
 
 }  // namespace striae
+
+#include <charconv>
+#include <cstring>
+#include <string>
+
+namespace striae {
+
+void grid_node_lines(double s, Line *out) {
+  size_t i = 0;
+  for_each_node(s, [&](const Line &l) { out[i++] = l; });
+}
+
+const char *grid_kind_name(GridKind k) {
+  switch (k) {
+    case GridKind::Density: return "density";
+    case GridKind::RightDihedra: return "right_dihedra";
+  }
+  return "unknown";
+}
+
+namespace {
+
+[[noreturn]] void grid_syntax(const char *text, const std::string &detail) {
+  std::string t(text);
+  if (t.size() > 80) t = t.substr(0, 80) + "...";
+  throw Error(ErrorKind::InvalidText, "invalid input syntax for type sphere_grid: \"" + t + "\"",
+              detail,
+              "Accepted: {\"kind\": \"density\" or \"right_dihedra\", \"spacing\": S, \"n\": N, "
+              "\"values\": [...]}, with one value per grid node, as sphere_grid output prints it.");
+}
+
+struct Cursor {
+  const char *text;
+  size_t i;
+  void blanks() {
+    while (text[i] == ' ' || text[i] == '\t' || text[i] == '\n' || text[i] == '\r') ++i;
+  }
+  void expect(const char *tok) {
+    blanks();
+    const size_t n = std::strlen(tok);
+    if (std::strncmp(text + i, tok, n) != 0) grid_syntax(text, std::string("expected ") + tok);
+    i += n;
+  }
+  double number() {
+    blanks();
+    const char *b = text + i;
+    const char *e = b;
+    while (*e && std::strchr("+-.0123456789eE", *e)) ++e;
+    double v;
+    auto r = std::from_chars(*b == '+' ? b + 1 : b, e, v);
+    if (e == b || r.ec != std::errc() || r.ptr != e || !std::isfinite(v))
+      grid_syntax(text, "expected a finite number");
+    i = static_cast<size_t>(e - text);
+    return v;
+  }
+};
+
+}  // namespace
+
+GridHeader parse_grid_header(const char *text) {
+  Cursor c{text, 0};
+  GridHeader h{};
+  c.expect("{");
+  c.expect("\"kind\"");
+  c.expect(":");
+  c.blanks();
+  if (std::strncmp(text + c.i, "\"density\"", 9) == 0) {
+    h.kind = GridKind::Density;
+    c.i += 9;
+  } else if (std::strncmp(text + c.i, "\"right_dihedra\"", 15) == 0) {
+    h.kind = GridKind::RightDihedra;
+    c.i += 15;
+  } else {
+    grid_syntax(text, "unknown grid kind");
+  }
+  c.expect(",");
+  c.expect("\"spacing\"");
+  c.expect(":");
+  h.spacing = c.number();
+  c.expect(",");
+  c.expect("\"n\"");
+  c.expect(":");
+  const double n = c.number();
+  if (!(n >= 1 && n <= 9.007199254740992e15) || n != std::floor(n))
+    grid_syntax(text, "n must be a whole number of data, at least 1");
+  h.n = static_cast<int64_t>(n);
+  c.expect(",");
+  c.expect("\"values\"");
+  c.expect(":");
+  c.expect("[");
+  h.values_at = c.i;
+  check_grid_spacing(h.spacing);
+  return h;
+}
+
+void parse_grid_values(const char *text, size_t at, double *out, size_t count) {
+  Cursor c{text, at};
+  for (size_t k = 0; k < count; ++k) {
+    if (k) {
+      c.blanks();
+      if (text[c.i] == ']')
+        grid_syntax(text, "only " + std::to_string(k) + " values for a grid of " +
+                              std::to_string(count) + " nodes");
+      c.expect(",");
+    }
+    out[k] = c.number();
+  }
+  c.blanks();
+  if (text[c.i] == ',')
+    grid_syntax(text, "more values than the " + std::to_string(count) + " nodes of the grid");
+  c.expect("]");
+  c.expect("}");
+  c.blanks();
+  if (text[c.i] != '\0') grid_syntax(text, "unexpected text after the grid");
+}
+
+void check_grid(GridKind kind, double spacing, int64_t n, const double *values, size_t count) {
+  if (kind != GridKind::Density && kind != GridKind::RightDihedra)
+    throw Error(ErrorKind::DataError, "unknown sphere_grid kind");
+  check_grid_spacing(spacing);
+  if (count != static_cast<size_t>(grid_node_count(spacing)))
+    throw Error(ErrorKind::DataError, "sphere_grid has " + std::to_string(count) +
+                                          " values, but its spacing needs " +
+                                          std::to_string(grid_node_count(spacing)));
+  if (n < 1) throw Error(ErrorKind::DataError, "sphere_grid data count must be at least 1");
+  for (size_t k = 0; k < count; ++k) {
+    const double v = values[k];
+    const bool ok = std::isfinite(v) && v >= 0 && (kind != GridKind::RightDihedra || v <= 100);
+    if (!ok)
+      throw Error(ErrorKind::DataError, "sphere_grid value out of range",
+                  kind == GridKind::RightDihedra ? "Right-dihedra values are percentages, 0 to 100."
+                                                 : "Density values are finite and not negative.");
+  }
+}
+
+}  // namespace striae

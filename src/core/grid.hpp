@@ -31,3 +31,35 @@ std::vector<Line> grid_nodes(double spacing_deg);
 std::vector<Vec3> grid_node_vectors(double spacing_deg);
 
 }  // namespace striae
+
+namespace striae {
+
+// Node lines written into a caller-owned array of grid_node_count(spacing).
+void grid_node_lines(double spacing_deg, Line *out);
+
+// What a stored grid's values mean.
+enum class GridKind : int32_t {
+  Density = 1,       // multiples of uniform density (density_grid)
+  RightDihedra = 2,  // percent of data for which the node is compressional
+};
+const char *grid_kind_name(GridKind k);
+
+// Header of the text form of a sphere_grid:
+//   {"kind": "density", "spacing": 5, "n": 120, "values": [v1, v2, ...]}
+// (keys in this order, blanks anywhere between tokens). parse_grid_header
+// reads up to the '[' and returns the offset of the first value;
+// parse_grid_values reads exactly count values and the closing "]}".
+struct GridHeader {
+  GridKind kind;
+  double spacing;
+  int64_t n;
+  size_t values_at;
+};
+GridHeader parse_grid_header(const char *text);
+void parse_grid_values(const char *text, size_t at, double *out, size_t count);
+
+// Check a grid's header fields and values (binary input, stored values):
+// spacing valid, count matching, n >= 1, values finite and within the kind's range.
+void check_grid(GridKind kind, double spacing, int64_t n, const double *values, size_t count);
+
+}  // namespace striae

@@ -170,7 +170,12 @@ Vec3 plane_normal(const Plane &p) {
   return Vec3(-sd * sind(p.strike), sd * cosd(p.strike), -cosd(p.dip));
 }
 
-Plane normal_plane(const Vec3 &v) { return plane_from_pole(vector_line(v)); }
+Plane normal_plane(const Vec3 &v) {
+  // Derived value: round again after the +90, so results print like vector_line's.
+  const Line l = vector_line(v);
+  return make_plane(snap_angle(norm360(l.trend + 90.0)) == 360.0 ? 0.0 : snap_angle(norm360(l.trend + 90.0)),
+                    snap_angle(90.0 - l.plunge));
+}
 
 Line pole(const Plane &p) { return make_line(norm360(p.strike - 90.0), 90.0 - p.dip); }
 

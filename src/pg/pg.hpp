@@ -22,6 +22,9 @@ extern "C" {
 #include "utils/lsyscache.h"
 #include "common/hashfn.h"
 #include "catalog/pg_type.h"
+#include "nodes/execnodes.h"
+#include "utils/tuplestore.h"
+#include "access/htup_details.h"
 }
 
 // C symbol = SQL name; declared extern "C" so the SQL script's AS 'MODULE_PATHNAME'
