@@ -36,17 +36,30 @@ inline double unneg(double v) { return v == 0.0 ? 0.0 : v; }
 
 }  // namespace
 
-double sind(double x) {
-  // Exact at multiples of 90 degrees, so axis-aligned data give exact 0 and 1.
-  const double r = std::fmod(x, 360.0);
-  if (r == 0) return 0.0;
-  if (r == 90 || r == -270) return 1.0;
-  if (r == 180 || r == -180) return 0.0;
-  if (r == 270 || r == -90) return -1.0;
-  return std::sin(rad(r));
+// Sine and cosine of x degrees at once, exact at multiples of 90 degrees so
+// axis-aligned data give exact 0 and 1. Angles here are already reduced
+// (0..360 or -180..180), so the fmod is rarely taken.
+void sincosd(double x, double &s, double &c) {
+  double r = (x >= -360.0 && x <= 360.0) ? x : std::fmod(x, 360.0);
+  if (r < 0) r += 360.0;
+  if (r == 0 || r == 360) { s = 0; c = 1; return; }
+  if (r == 90) { s = 1; c = 0; return; }
+  if (r == 180) { s = 0; c = -1; return; }
+  if (r == 270) { s = -1; c = 0; return; }
+  ::sincos(rad(r), &s, &c);
 }
 
-double cosd(double x) { return sind(x + 90.0); }
+double sind(double x) {
+  double s, c;
+  sincosd(x, s, c);
+  return s;
+}
+
+double cosd(double x) {
+  double s, c;
+  sincosd(x, s, c);
+  return c;
+}
 
 double snap_angle(double d) {
   // 1e-10 degree grid; values beyond 1e6 degrees never reach here.
@@ -140,8 +153,10 @@ bool is_canonical(const FaultSlip &f) {
 }
 
 Vec3 line_vector(const Line &l) {
-  const double cp = cosd(l.plunge);
-  return Vec3(cp * cosd(l.trend), cp * sind(l.trend), sind(l.plunge));
+  double st, ct, sp, cp;
+  sincosd(l.trend, st, ct);
+  sincosd(l.plunge, sp, cp);
+  return Vec3(cp * ct, cp * st, sp);
 }
 
 Line vector_line(const Vec3 &v0) {
@@ -158,16 +173,24 @@ Line vector_line(const Vec3 &v0) {
   return make_line(trend, plunge);
 }
 
-Vec3 strike_vector(double strike_deg) { return Vec3(cosd(strike_deg), sind(strike_deg), 0.0); }
+Vec3 strike_vector(double strike_deg) {
+  double s, c;
+  sincosd(strike_deg, s, c);
+  return Vec3(c, s, 0.0);
+}
 
 Vec3 dip_vector(double strike_deg, double dip_deg) {
-  const double cd = cosd(dip_deg);
-  return Vec3(-cd * sind(strike_deg), cd * cosd(strike_deg), sind(dip_deg));
+  double sf, cf, sd, cd;
+  sincosd(strike_deg, sf, cf);
+  sincosd(dip_deg, sd, cd);
+  return Vec3(-cd * sf, cd * cf, sd);
 }
 
 Vec3 plane_normal(const Plane &p) {
-  const double sd = sind(p.dip);
-  return Vec3(-sd * sind(p.strike), sd * cosd(p.strike), -cosd(p.dip));
+  double sf, cf, sd, cd;
+  sincosd(p.strike, sf, cf);
+  sincosd(p.dip, sd, cd);
+  return Vec3(-sd * sf, sd * cf, -cd);
 }
 
 Plane normal_plane(const Vec3 &v) {

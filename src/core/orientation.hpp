@@ -53,6 +53,7 @@ bool is_canonical(const FaultSlip &f);
 // pure thrust print exactly ('180/45/90', not '179.99999999999997/...').
 double snap_angle(double degrees);
 // Sine and cosine of degrees, exact at multiples of 90.
+void sincosd(double degrees, double &s, double &c);
 double sind(double degrees);
 double cosd(double degrees);
 // Reduce an azimuth to [0,360).

@@ -122,12 +122,12 @@ CREATE AGGREGATE fisher_mean(lineation) (
   COMBINEFUNC = fisher_combine, SERIALFUNC = fisher_serialize, DESERIALFUNC = fisher_deserialize,
   PARALLEL = SAFE);
 COMMENT ON AGGREGATE fisher_mean(lineation) IS
-  'Fisher (1953) mean of lineations as axes (sign-free; right for clusters straddling the horizontal); NULL for an empty group';
+  'Fisher (1953) mean of lineations as axes (sign-free; right for clusters straddling the horizontal); exact when all data lie within 62.4 degrees of the mean axis (always so for a cluster; broad girdle-like groups are aligned with the nearest of 13 fixed axes instead); NULL for an empty group';
 CREATE AGGREGATE fisher_mean(plane) (
   SFUNC = fisher_plane_accum, STYPE = internal, SSPACE = 736, FINALFUNC = fisher_final,
   COMBINEFUNC = fisher_combine, SERIALFUNC = fisher_serialize, DESERIALFUNC = fisher_deserialize,
   PARALLEL = SAFE);
-COMMENT ON AGGREGATE fisher_mean(plane) IS 'Fisher (1953) mean of the poles of planes (axial); NULL for an empty group';
+COMMENT ON AGGREGATE fisher_mean(plane) IS 'Fisher (1953) mean of the poles of planes (axial; exact when all poles lie within 62.4 degrees of the mean axis); NULL for an empty group';
 
 CREATE AGGREGATE orientation_tensor(lineation) (
   SFUNC = tensor_lineation_accum, STYPE = internal, SSPACE = 112, FINALFUNC = tensor_final,
