@@ -1,0 +1,903 @@
+// Paleostress glue: the stress_tensor type (text and binary I/O, accessors,
+// forward constructor), per-datum quantities under a tensor (misfit, resolved
+// slip, slip and dilation tendency), and the aggregates stress_inversion,
+// right_dihedra and focal_stress_inversion. All math is in src/core (stress.hpp,
+// dihedra.hpp, bootstrap.hpp); every call into it goes through guarded().
+//
+// Text form of stress_tensor (keys in this order on output; optional keys are
+// omitted when undefined and accepted in any order on input):
+//   {"components": [nn, ee, dd, ne, nd, ed], "n": 12, "misfit": 4.5,
+//    "cones": [c1, c2, c3], "phi_interval": [lo, hi], "flags": ["focal_joint"]}
+// Components are compression positive, NED, trace 0, unit Frobenius norm.
+#include "grid.hpp"
+
+#include "../core/bootstrap.hpp"
+#include "../core/dihedra.hpp"
+#include "../core/stress.hpp"
+
+#include <algorithm>
+#include <charconv>
+#include <string>
+
+using namespace striae;
+using namespace striae_pg;
+
+namespace {
+
+// ---- text form ------------------------------------------------------------------
+
+constexpr const char *kFlagFocal = "focal_joint";
+constexpr const char *kFlagNotConverged = "not_converged";
+
+// A small reader for the text form above. Pure C++ (runs inside guarded()).
+class TensorReader {
+ public:
+  explicit TensorReader(const char *s) : text_(s), p_(s) {}
+
+  StressTensor read() {
+    StressTensor t{};
+    t.version = kStressTensorVersion;
+    bool have_c = false, have_n = false, have_m = false, have_cones = false, have_phi = false,
+         have_flags = false;
+    expect('{');
+    skip_ws();
+    if (*p_ == '}') fail("\"components\" and \"n\" are required");
+    for (;;) {
+      const std::string key = string_token();
+      expect(':');
+      if (key == "components") {
+        once(have_c, key);
+        double c[6];
+        numbers(c, 6);
+        t.nn = c[0]; t.ee = c[1]; t.dd = c[2]; t.ne = c[3]; t.nd = c[4]; t.ed = c[5];
+      } else if (key == "n") {
+        once(have_n, key);
+        t.data_count = integer();
+      } else if (key == "misfit") {
+        once(have_m, key);
+        t.mean_misfit = number();
+        t.flags |= kStressHasMisfit;
+      } else if (key == "cones") {
+        once(have_cones, key);
+        numbers(t.cone, 3);
+        t.flags |= kStressHasCones;
+      } else if (key == "phi_interval") {
+        once(have_phi, key);
+        double v[2];
+        numbers(v, 2);
+        t.phi_lo = v[0];
+        t.phi_hi = v[1];
+        t.flags |= kStressHasPhiInterval;
+      } else if (key == "flags") {
+        once(have_flags, key);
+        flags(t.flags);
+      } else {
+        fail("unknown key \"" + key + "\"");
+      }
+      skip_ws();
+      if (*p_ == ',') { ++p_; continue; }
+      if (*p_ == '}') { ++p_; break; }
+      fail("expected \",\" or \"}\"");
+    }
+    skip_ws();
+    if (*p_ != '\0') fail("unexpected text after \"}\"");
+    if (!have_c || !have_n) fail("\"components\" and \"n\" are required");
+    return t;
+  }
+
+ private:
+  const char *text_;
+  const char *p_;
+
+  [[noreturn]] void fail(const std::string &why) const {
+    throw Error(ErrorKind::InvalidText,
+                std::string("invalid input syntax for type stress_tensor: \"") + text_ + "\"",
+                why + "; accepted: {\"components\": [nn, ee, dd, ne, nd, ed], \"n\": count} and optional "
+                      "\"misfit\", \"cones\" [3], \"phi_interval\" [2], \"flags\" [\"focal_joint\", \"not_converged\"]");
+  }
+  void skip_ws() {
+    while (*p_ == ' ' || *p_ == '\t' || *p_ == '\n' || *p_ == '\r') ++p_;
+  }
+  void expect(char c) {
+    skip_ws();
+    if (*p_ != c) fail(std::string("expected \"") + c + "\"");
+    ++p_;
+  }
+  void once(bool &seen, const std::string &key) {
+    if (seen) fail("key \"" + key + "\" given twice");
+    seen = true;
+  }
+  std::string string_token() {
+    expect('"');
+    const char *b = p_;
+    while (*p_ && *p_ != '"') ++p_;
+    if (*p_ != '"') fail("unterminated string");
+    std::string s(b, p_);
+    ++p_;
+    return s;
+  }
+  // The run of characters a number can be made of (sign, digits, point, exponent).
+  const char *number_end() {
+    skip_ws();
+    const char *e = p_;
+    while ((*e >= '0' && *e <= '9') || *e == '-' || *e == '+' || *e == '.' || *e == 'e' || *e == 'E') ++e;
+    if (e == p_) fail("expected a number");
+    return e;
+  }
+  double number() {
+    const char *e = number_end();
+    double v = 0;
+    auto r = std::from_chars(p_, e, v, std::chars_format::general);
+    if (r.ec != std::errc() || r.ptr != e) fail("bad number");
+    p_ = e;
+    return v;
+  }
+  int64_t integer() {
+    const char *e = number_end();
+    int64_t v = 0;
+    auto r = std::from_chars(p_, e, v);
+    if (r.ec != std::errc() || r.ptr != e) fail("\"n\" must be an integer");
+    p_ = e;
+    return v;
+  }
+  void numbers(double *out, int n) {
+    expect('[');
+    for (int i = 0; i < n; ++i) {
+      if (i) expect(',');
+      out[i] = number();
+    }
+    expect(']');
+  }
+  void flags(uint32_t &f) {
+    expect('[');
+    skip_ws();
+    if (*p_ == ']') { ++p_; return; }
+    for (;;) {
+      const std::string s = string_token();
+      if (s == kFlagFocal) f |= kStressFocalJoint;
+      else if (s == kFlagNotConverged) f |= kStressNotConverged;
+      else fail("unknown flag \"" + s + "\"");
+      skip_ws();
+      if (*p_ == ',') { ++p_; continue; }
+      if (*p_ == ']') { ++p_; return; }
+      fail("expected \",\" or \"]\"");
+    }
+  }
+};
+
+void append_number(StringInfo b, double v) {
+  char *s = float8out_internal(v);
+  appendStringInfoString(b, s);
+  pfree(s);
+}
+
+void append_numbers(StringInfo b, const double *v, int n) {
+  appendStringInfoChar(b, '[');
+  for (int i = 0; i < n; ++i) {
+    if (i) appendStringInfoString(b, ", ");
+    append_number(b, v[i]);
+  }
+  appendStringInfoChar(b, ']');
+}
+
+// ---- arguments --------------------------------------------------------------------
+
+// A tensor argument, validated (a user can hand in any bytes via binary input
+// of another build; check_stress_tensor is cheap).
+StressTensor tensor_arg(FunctionCallInfo fcinfo, int k) {
+  const StressTensor t = *arg<StressTensor>(fcinfo, k);
+  guarded([&] { check_stress_tensor(t); });
+  return t;
+}
+
+// Wire format of send/recv: one version byte, then the 12 float8 fields in
+// struct order, data_count as int8 and flags as int4.
+constexpr int kWireVersion = 1;
+
+}  // namespace
+
+// ---- type I/O -----------------------------------------------------------------------
+
+STRIAE_FUNCTION(stress_tensor_in) {
+  const char *s = PG_GETARG_CSTRING(0);
+  const StressTensor t = guarded([&] {
+    StressTensor v = TensorReader(s).read();
+    check_stress_tensor(v);
+    return v;
+  });
+  return result(t);
+}
+
+STRIAE_FUNCTION(stress_tensor_out) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  StringInfoData b;
+  initStringInfo(&b);
+  const double c[6] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed};
+  appendStringInfoString(&b, "{\"components\": ");
+  append_numbers(&b, c, 6);
+  appendStringInfo(&b, ", \"n\": " INT64_FORMAT, static_cast<int64>(t.data_count));
+  if (t.flags & kStressHasMisfit) {
+    appendStringInfoString(&b, ", \"misfit\": ");
+    append_number(&b, t.mean_misfit);
+  }
+  if (t.flags & kStressHasCones) {
+    appendStringInfoString(&b, ", \"cones\": ");
+    append_numbers(&b, t.cone, 3);
+  }
+  if (t.flags & kStressHasPhiInterval) {
+    const double v[2] = {t.phi_lo, t.phi_hi};
+    appendStringInfoString(&b, ", \"phi_interval\": ");
+    append_numbers(&b, v, 2);
+  }
+  if (t.flags & (kStressFocalJoint | kStressNotConverged)) {
+    appendStringInfoString(&b, ", \"flags\": [");
+    if (t.flags & kStressFocalJoint) appendStringInfo(&b, "\"%s\"", kFlagFocal);
+    if ((t.flags & kStressFocalJoint) && (t.flags & kStressNotConverged)) appendStringInfoString(&b, ", ");
+    if (t.flags & kStressNotConverged) appendStringInfo(&b, "\"%s\"", kFlagNotConverged);
+    appendStringInfoChar(&b, ']');
+  }
+  appendStringInfoChar(&b, '}');
+  PG_RETURN_CSTRING(b.data);
+}
+
+STRIAE_FUNCTION(stress_tensor_recv) {
+  StringInfo buf = reinterpret_cast<StringInfo>(PG_GETARG_POINTER(0));
+  const int version = pq_getmsgbyte(buf);
+  if (version != kWireVersion)
+    ereport(ERROR, (errcode(ERRCODE_INVALID_BINARY_REPRESENTATION),
+                    errmsg("invalid binary format version %d for type stress_tensor", version),
+                    errdetail("This build reads version %d.", kWireVersion)));
+  StressTensor t{};
+  double *f[12] = {&t.nn, &t.ee, &t.dd, &t.ne, &t.nd, &t.ed, &t.mean_misfit,
+                   &t.cone[0], &t.cone[1], &t.cone[2], &t.phi_lo, &t.phi_hi};
+  for (double *p : f) *p = pq_getmsgfloat8(buf);
+  t.data_count = pq_getmsgint64(buf);
+  t.flags = static_cast<uint32_t>(pq_getmsgint(buf, 4));
+  t.version = kStressTensorVersion;
+  guarded([&] { check_stress_tensor(t); });
+  return result(t);
+}
+
+STRIAE_FUNCTION(stress_tensor_send) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  const double f[12] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed, t.mean_misfit,
+                        t.cone[0], t.cone[1], t.cone[2], t.phi_lo, t.phi_hi};
+  StringInfoData buf;
+  pq_begintypsend(&buf);
+  pq_sendbyte(&buf, kWireVersion);
+  for (double v : f) pq_sendfloat8(&buf, v);
+  pq_sendint64(&buf, t.data_count);
+  pq_sendint32(&buf, t.flags);
+  PG_RETURN_BYTEA_P(pq_endtypsend(&buf));
+}
+
+// ---- constructor and accessors ---------------------------------------------------------
+
+STRIAE_FUNCTION(stress_tensor_from_axes) {
+  const Line s1 = *arg<Line>(fcinfo, 0), s3 = *arg<Line>(fcinfo, 1);
+  const double phi = PG_GETARG_FLOAT8(2);
+  return result(guarded([&] { return stress_from_axes(s1, s3, phi); }));
+}
+
+namespace {
+Datum axis(FunctionCallInfo fcinfo, int i) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  return result(guarded([&] { return stress_axis(t, i); }));
+}
+Datum cone(FunctionCallInfo fcinfo, int i) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  if (!(t.flags & kStressHasCones)) PG_RETURN_NULL();
+  PG_RETURN_FLOAT8(t.cone[i]);
+}
+}  // namespace
+
+STRIAE_FUNCTION(sigma1) { return axis(fcinfo, 1); }
+STRIAE_FUNCTION(sigma2) { return axis(fcinfo, 2); }
+STRIAE_FUNCTION(sigma3) { return axis(fcinfo, 3); }
+STRIAE_FUNCTION(sigma1_confidence) { return cone(fcinfo, 0); }
+STRIAE_FUNCTION(sigma2_confidence) { return cone(fcinfo, 1); }
+STRIAE_FUNCTION(sigma3_confidence) { return cone(fcinfo, 2); }
+
+STRIAE_FUNCTION(stress_shape_ratio) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  PG_RETURN_FLOAT8(guarded([&] { return striae::shape_ratio(t); }));
+}
+
+STRIAE_FUNCTION(stress_shmax_azimuth) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  const std::optional<double> a = guarded([&] { return striae::shmax_azimuth(t); });
+  if (!a) PG_RETURN_NULL();
+  PG_RETURN_FLOAT8(*a);
+}
+
+STRIAE_FUNCTION(stress_tensor_regime) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  return text_result(guarded([&] { return stress_regime_label(striae::stress_regime(t)); }));
+}
+
+STRIAE_FUNCTION(stress_regime_index) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  PG_RETURN_FLOAT8(guarded([&] { return striae::regime_index(t); }));
+}
+
+STRIAE_FUNCTION(stress_data_count) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  PG_RETURN_INT64(t.data_count);
+}
+
+STRIAE_FUNCTION(stress_mean_misfit) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  if (!(t.flags & kStressHasMisfit)) PG_RETURN_NULL();
+  PG_RETURN_FLOAT8(t.mean_misfit);
+}
+
+STRIAE_FUNCTION(shape_ratio_interval) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  if (!(t.flags & kStressHasPhiInterval)) PG_RETURN_NULL();
+  const double v[2] = {t.phi_lo, t.phi_hi};
+  return float8_array(v, 2);
+}
+
+STRIAE_FUNCTION(stress_components) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  const double c[6] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed};
+  return float8_array(c, 6);
+}
+
+// ---- per-datum quantities ---------------------------------------------------------------
+
+STRIAE_FUNCTION(stress_misfit) {
+  const FaultSlip f = *arg<FaultSlip>(fcinfo, 0);
+  const StressTensor t = tensor_arg(fcinfo, 1);
+  const std::optional<double> m = guarded([&] {
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    return striae::misfit(n, u, t);
+  });
+  if (!m) PG_RETURN_NULL();
+  PG_RETURN_FLOAT8(*m);
+}
+
+STRIAE_FUNCTION(stress_resolved_slip) {
+  const Plane p = *arg<Plane>(fcinfo, 0);
+  const StressTensor t = tensor_arg(fcinfo, 1);
+  bool defined = false;
+  const FaultSlip f = guarded([&] {
+    const Vec3 n = plane_normal(p);
+    const std::optional<Vec3> u = striae::resolved_slip(n, t);
+    defined = u.has_value();
+    return defined ? fault_from_vectors(n, *u) : FaultSlip{0, 0, 0};
+  });
+  if (!defined) PG_RETURN_NULL();
+  return result(f);
+}
+
+STRIAE_FUNCTION(stress_slip_tendency) {
+  const Plane p = *arg<Plane>(fcinfo, 0);
+  const StressTensor t = tensor_arg(fcinfo, 1);
+  const double mu = PG_GETARG_FLOAT8(2);
+  PG_RETURN_FLOAT8(guarded([&] {
+    check_friction(mu);
+    return striae::slip_tendency(plane_normal(p), t, mu);
+  }));
+}
+
+STRIAE_FUNCTION(stress_dilation_tendency) {
+  const Plane p = *arg<Plane>(fcinfo, 0);
+  const StressTensor t = tensor_arg(fcinfo, 1);
+  PG_RETURN_FLOAT8(guarded([&] { return striae::dilation_tendency(plane_normal(p), t); }));
+}
+
+// ---- aggregates: shared helpers -----------------------------------------------------------
+
+namespace {
+
+MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
+  MemoryContext ctx;
+  if (!AggCheckCallContext(fcinfo, &ctx))
+    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED),
+                    errmsg("%s called in non-aggregate context", fn)));
+  return ctx;
+}
+
+// The datum (n, u) of a fault_slip argument, as the core's data-keeping functions take it.
+SlipDatum slip_datum(FunctionCallInfo fcinfo, int k) {
+  const FaultSlip f = *arg<FaultSlip>(fcinfo, k);
+  return guarded([&] {
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    SlipDatum d;
+    for (int i = 0; i < 3; ++i) {
+      d.n[i] = n[i];
+      d.u[i] = u[i];
+    }
+    return d;
+  });
+}
+
+[[noreturn]] void bad_serial(const char *fn) {
+  ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: not a serialized state of this aggregate", fn)));
+  pg_unreachable();
+}
+
+// ---- stress_inversion(fault_slip): normal equations (Michael 1984) -----------------------------
+
+constexpr uint32 kStressMagic = 0x53535431;  // "SST1"
+
+StressAccum *stress_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<StressAccum *>(PG_GETARG_POINTER(k));
+}
+
+}  // namespace
+
+STRIAE_FUNCTION(stress_inversion_accum) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_inversion_accum");
+  StressAccum *s = stress_state(fcinfo, 0);
+  if (s == nullptr) {
+    s = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
+    stress_init(*s);
+  }
+  if (!PG_ARGISNULL(1)) {
+    const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
+    guarded([&] {
+      Vec3 n, u;
+      fault_vectors(f, n, u);
+      stress_add(*s, n, u);
+    });
+  }
+  PG_RETURN_POINTER(s);
+}
+
+STRIAE_FUNCTION(stress_inversion_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_inversion_combine");
+  StressAccum *a = stress_state(fcinfo, 0), *b = stress_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  if (a == nullptr) {
+    a = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
+    std::memcpy(a, b, sizeof(StressAccum));
+    guarded([&] { stress_validate(*a); });
+    PG_RETURN_POINTER(a);
+  }
+  guarded([&] {
+    stress_validate(*a);
+    stress_validate(*b);
+    stress_combine(*a, *b);
+  });
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(stress_inversion_serialize) {
+  agg_context(fcinfo, "stress_inversion_serialize");
+  const StressAccum *s = reinterpret_cast<const StressAccum *>(PG_GETARG_POINTER(0));
+  guarded([&] { stress_validate(*s); });
+  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(StressAccum)));
+  SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(StressAccum));
+  std::memcpy(VARDATA(out), &kStressMagic, 4);
+  std::memcpy(VARDATA(out) + 4, s, sizeof(StressAccum));
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(stress_inversion_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_inversion_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  uint32 magic = 0;
+  if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(StressAccum)) std::memcpy(&magic, VARDATA_ANY(in), 4);
+  if (magic != kStressMagic) bad_serial("stress_inversion_deserialize");
+  StressAccum *s = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
+  std::memcpy(s, VARDATA_ANY(in) + 4, sizeof(StressAccum));
+  guarded([&] { stress_validate(*s); });
+  PG_RETURN_POINTER(s);
+}
+
+// NULL for an empty group, too few data or a degenerate set (stress.hpp, StressStatus).
+STRIAE_FUNCTION(stress_inversion_final) {
+  const StressAccum *s = stress_state(fcinfo, 0);
+  if (s == nullptr) PG_RETURN_NULL();
+  StressTensor t{};
+  const StressStatus st = guarded([&] {
+    stress_validate(*s);
+    return stress_finalise(*s, t);
+  });
+  if (st != StressStatus::Ok) PG_RETURN_NULL();
+  return result(t);
+}
+
+// ---- right_dihedra(fault_slip, spacing) (Angelier & Mechler 1977) ------------------------------
+//
+// State: DihedraHeader followed by node_count int64 counts, one palloc chunk in
+// the aggregate context. The node table depends only on the spacing and is kept
+// per backend in a static (one spacing at a time; recomputed when it changes).
+
+namespace {
+
+constexpr uint32 kDihedraMagic = 0x53524431;  // "SRD1"
+// Largest node count we accept from a serialized state before dihedra_validate
+// (spacing 0.5 gives about 1.7e5 nodes; this is a generous bound on the length).
+constexpr int32 kDihedraMaxNodes = 1 << 22;
+
+struct DihedraAgg {
+  DihedraHeader h;
+  int64_t counts[FLEXIBLE_ARRAY_MEMBER];
+};
+static_assert(std::is_trivially_destructible<DihedraHeader>::value, "palloc'd state");
+
+DihedraAgg *dihedra_new(MemoryContext ctx, const DihedraHeader &h) {
+  const Size size = offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(h.node_count);
+  DihedraAgg *a = static_cast<DihedraAgg *>(MemoryContextAllocZero(ctx, size));
+  a->h = h;
+  return a;
+}
+
+Size dihedra_size(const DihedraAgg *a) {
+  return offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(a->h.node_count);
+}
+
+// Node table for a spacing, cached per backend.
+const double *dihedra_nodes(double spacing) {
+  static double cached_spacing = -1;
+  static std::vector<double> table;
+  if (spacing != cached_spacing) {
+    guarded([&] {
+      cached_spacing = -1;
+      table = dihedra_node_table(spacing);
+      cached_spacing = spacing;
+    });
+  }
+  return table.data();
+}
+
+DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<DihedraAgg *>(PG_GETARG_POINTER(k));
+}
+
+[[noreturn]] void dihedra_spacing_mismatch() {
+  ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                  errmsg("right_dihedra spacing must be the same for every row of a group")));
+  pg_unreachable();
+}
+
+}  // namespace
+
+STRIAE_FUNCTION(right_dihedra_accum) {
+  MemoryContext ctx = agg_context(fcinfo, "right_dihedra_accum");
+  DihedraAgg *a = dihedra_state(fcinfo, 0);
+  if (PG_ARGISNULL(2))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("right_dihedra spacing must not be NULL")));
+  const double spacing = PG_GETARG_FLOAT8(2);
+  if (a == nullptr) {
+    const DihedraHeader h = guarded([&] { return dihedra_init(spacing); });
+    a = dihedra_new(ctx, h);
+  } else if (spacing != a->h.spacing) {
+    dihedra_spacing_mismatch();
+  }
+  if (PG_ARGISNULL(1)) PG_RETURN_POINTER(a);
+  const SlipDatum d = slip_datum(fcinfo, 1);
+  const double *nodes = dihedra_nodes(spacing);
+  guarded([&] { dihedra_add(a->h, a->counts, nodes, d.n, d.u); });
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(right_dihedra_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "right_dihedra_combine");
+  DihedraAgg *a = dihedra_state(fcinfo, 0), *b = dihedra_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  if (a == nullptr) {
+    guarded([&] { dihedra_validate(b->h, b->counts); });
+    a = dihedra_new(ctx, b->h);
+    std::memcpy(a, b, dihedra_size(b));
+    PG_RETURN_POINTER(a);
+  }
+  if (a->h.spacing != b->h.spacing) dihedra_spacing_mismatch();
+  guarded([&] {
+    dihedra_validate(a->h, a->counts);
+    dihedra_validate(b->h, b->counts);
+    dihedra_combine(a->h, a->counts, b->h, b->counts);
+  });
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(right_dihedra_serialize) {
+  agg_context(fcinfo, "right_dihedra_serialize");
+  const DihedraAgg *a = reinterpret_cast<const DihedraAgg *>(PG_GETARG_POINTER(0));
+  guarded([&] { dihedra_validate(a->h, a->counts); });
+  const Size n = dihedra_size(a);
+  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + n));
+  SET_VARSIZE(out, VARHDRSZ + 4 + n);
+  std::memcpy(VARDATA(out), &kDihedraMagic, 4);
+  std::memcpy(VARDATA(out) + 4, a, n);
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(right_dihedra_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "right_dihedra_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  const Size len = VARSIZE_ANY_EXHDR(in);
+  const char *p = VARDATA_ANY(in);
+  uint32 magic = 0;
+  DihedraHeader h{};
+  if (len >= 4 + sizeof(DihedraHeader)) {
+    std::memcpy(&magic, p, 4);
+    std::memcpy(&h, p + 4, sizeof(DihedraHeader));
+  }
+  if (magic != kDihedraMagic || h.node_count < 0 || h.node_count > kDihedraMaxNodes ||
+      len != 4 + offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(h.node_count))
+    bad_serial("right_dihedra_deserialize");
+  DihedraAgg *a = dihedra_new(ctx, h);
+  std::memcpy(a, p + 4, len - 4);
+  guarded([&] { dihedra_validate(a->h, a->counts); });
+  PG_RETURN_POINTER(a);
+}
+
+// NULL for an empty group (or only NULL rows).
+STRIAE_FUNCTION(right_dihedra_final) {
+  const DihedraAgg *a = dihedra_state(fcinfo, 0);
+  if (a == nullptr || a->h.data_count == 0) PG_RETURN_NULL();
+  guarded([&] { dihedra_validate(a->h, a->counts); });
+  GridDatum *g = grid_alloc(GridKind::RightDihedra, a->h.spacing, a->h.data_count, a->h.node_count);
+  guarded([&] { dihedra_finalise(a->h, a->counts, g->values); });
+  PG_RETURN_POINTER(g);
+}
+
+// ---- aggregates that keep the group's data -----------------------------------------------------
+//
+// stress_inversion(fault_slip, resamples, seed) (bootstrap, Michael 1987) and
+// focal_stress_inversion(fault_slip [, friction]) (Vavrycuk 2014). State: the
+// parameters and a growing SlipDatum array (48 bytes a datum) in the aggregate
+// context, at most kMaxBootstrapData data (48 MB); combine concatenates. The final
+// functions sort the data first, so the result does not depend on row order or
+// on the plan (serial or parallel).
+
+namespace {
+
+constexpr uint32 kKeepMagic = 0x53534b31;  // "SSK1"
+constexpr int32 kKeepBootstrap = 1;
+constexpr int32 kKeepFocal = 2;
+constexpr int64 kKeepInitialCap = 64;
+// Default friction search of focal_stress_inversion(fault_slip): striae's choice,
+// covering the usual range of fault friction (common practice, no source).
+constexpr double kFocalMuMin = 0.2, kFocalMuMax = 1.0, kFocalMuStep = 0.1;
+
+struct KeepAgg {
+  int32 kind;       // kKeepBootstrap or kKeepFocal
+  int32 resamples;  // bootstrap
+  int64 seed;       // bootstrap
+  double friction;  // focal: fixed value, or 0 = default search
+  int64 count;
+  int64 cap;
+  SlipDatum *data;
+};
+static_assert(std::is_trivially_destructible<KeepAgg>::value, "palloc'd state");
+constexpr Size kKeepHeader = 4 + 4 + 4 + 8 + 8 + 8;  // magic kind resamples seed friction count
+
+KeepAgg *keep_new(MemoryContext ctx, int32 kind, int32 resamples, int64 seed, double friction, int64 cap) {
+  KeepAgg *a = static_cast<KeepAgg *>(MemoryContextAlloc(ctx, sizeof(KeepAgg)));
+  a->kind = kind;
+  a->resamples = resamples;
+  a->seed = seed;
+  a->friction = friction;
+  a->count = 0;
+  a->cap = Max(cap, kKeepInitialCap);
+  a->data = static_cast<SlipDatum *>(MemoryContextAlloc(ctx, sizeof(SlipDatum) * a->cap));
+  return a;
+}
+
+KeepAgg *keep_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<KeepAgg *>(PG_GETARG_POINTER(k));
+}
+
+[[noreturn]] void too_many_data() {
+  ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                  errmsg("too many data for a data-keeping stress inversion"),
+                  errdetail("At most %d fault-slip data per group are kept.", static_cast<int>(kMaxBootstrapData)),
+                  errhint("Use stress_inversion(fault_slip) for the streaming inversion without confidence.")));
+  pg_unreachable();
+}
+
+void keep_reserve(KeepAgg *a, int64 need) {
+  if (need > static_cast<int64>(kMaxBootstrapData)) too_many_data();
+  if (need <= a->cap) return;
+  int64 cap = a->cap;
+  while (cap < need) cap *= 2;
+  cap = Min(cap, static_cast<int64>(kMaxBootstrapData));
+  a->data = static_cast<SlipDatum *>(repalloc(a->data, sizeof(SlipDatum) * cap));
+  a->cap = cap;
+}
+
+void keep_append(KeepAgg *a, FunctionCallInfo fcinfo, int k) {
+  if (PG_ARGISNULL(k)) return;
+  const SlipDatum d = slip_datum(fcinfo, k);
+  keep_reserve(a, a->count + 1);
+  a->data[a->count++] = d;
+}
+
+void keep_same(const KeepAgg *a, int32 resamples, int64 seed, double friction, const char *fn) {
+  if (a->resamples != resamples || a->seed != seed || a->friction != friction)
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                    errmsg("%s parameters must be the same for every row of a group", fn)));
+}
+
+void keep_validate(const KeepAgg *a) {
+  guarded([&] {
+    if (a->kind != kKeepBootstrap && a->kind != kKeepFocal)
+      throw Error(ErrorKind::BadState, "invalid stress inversion state: unknown kind");
+    if (a->count < 0 || a->count > a->cap || a->count > static_cast<int64>(kMaxBootstrapData))
+      throw Error(ErrorKind::BadState, "invalid stress inversion state: bad count");
+    if (a->kind == kKeepBootstrap) {
+      BootstrapOptions o;
+      o.resamples = a->resamples;
+      o.seed = static_cast<uint64_t>(a->seed);
+      check_bootstrap_options(o);
+    } else if (a->friction != 0) {
+      check_friction(a->friction);
+    }
+    for (int64 i = 0; i < a->count; ++i) check_slip_datum(a->data[i].n, a->data[i].u);
+  });
+}
+
+bool datum_less(const SlipDatum &x, const SlipDatum &y) {
+  const double *a = x.n, *b = y.n;  // n then u: 6 contiguous doubles
+  for (int i = 0; i < 6; ++i) {
+    const double p = i < 3 ? a[i] : x.u[i - 3], q = i < 3 ? b[i] : y.u[i - 3];
+    if (p != q) return p < q;
+  }
+  return false;
+}
+
+}  // namespace
+
+STRIAE_FUNCTION(stress_bootstrap_accum) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_bootstrap_accum");
+  KeepAgg *a = keep_state(fcinfo, 0);
+  if (PG_ARGISNULL(2) || PG_ARGISNULL(3))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("stress_inversion resamples and seed must not be NULL")));
+  const int32 resamples = PG_GETARG_INT32(2);
+  const int64 seed = PG_GETARG_INT64(3);
+  if (a == nullptr) {
+    guarded([&] {
+      BootstrapOptions o;
+      o.resamples = resamples;
+      o.seed = static_cast<uint64_t>(seed);
+      check_bootstrap_options(o);
+    });
+    a = keep_new(ctx, kKeepBootstrap, resamples, seed, 0, kKeepInitialCap);
+  } else {
+    keep_same(a, resamples, seed, 0, "stress_inversion");
+  }
+  keep_append(a, fcinfo, 1);
+  PG_RETURN_POINTER(a);
+}
+
+namespace {
+Datum focal_accum(FunctionCallInfo fcinfo, bool fixed) {
+  MemoryContext ctx = agg_context(fcinfo, "focal_stress_inversion_accum");
+  KeepAgg *a = keep_state(fcinfo, 0);
+  if (fixed && PG_ARGISNULL(2))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("focal_stress_inversion friction must not be NULL")));
+  const double mu = fixed ? PG_GETARG_FLOAT8(2) : 0.0;
+  if (a == nullptr) {
+    if (fixed) guarded([&] { check_friction(mu); });
+    a = keep_new(ctx, kKeepFocal, 0, 0, mu, kKeepInitialCap);
+  } else {
+    keep_same(a, 0, 0, mu, "focal_stress_inversion");
+  }
+  keep_append(a, fcinfo, 1);
+  PG_RETURN_POINTER(a);
+}
+}  // namespace
+
+STRIAE_FUNCTION(focal_stress_inversion_accum) { return focal_accum(fcinfo, false); }
+STRIAE_FUNCTION(focal_stress_inversion_friction_accum) { return focal_accum(fcinfo, true); }
+
+STRIAE_FUNCTION(stress_keep_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_keep_combine");
+  KeepAgg *a = keep_state(fcinfo, 0), *b = keep_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  keep_validate(b);
+  if (a == nullptr) {
+    a = keep_new(ctx, b->kind, b->resamples, b->seed, b->friction, b->count);
+  } else {
+    keep_validate(a);
+    if (a->kind != b->kind)
+      ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("stress_keep_combine: states of different aggregates")));
+    keep_same(a, b->resamples, b->seed, b->friction, "stress inversion");
+  }
+  keep_reserve(a, a->count + b->count);
+  std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
+  a->count += b->count;
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(stress_keep_serialize) {
+  agg_context(fcinfo, "stress_keep_serialize");
+  const KeepAgg *a = reinterpret_cast<const KeepAgg *>(PG_GETARG_POINTER(0));
+  keep_validate(a);
+  const Size size = VARHDRSZ + kKeepHeader + sizeof(SlipDatum) * a->count;
+  bytea *out = static_cast<bytea *>(palloc(size));
+  SET_VARSIZE(out, size);
+  char *p = VARDATA(out);
+  std::memcpy(p, &kKeepMagic, 4);
+  std::memcpy(p + 4, &a->kind, 4);
+  std::memcpy(p + 8, &a->resamples, 4);
+  std::memcpy(p + 12, &a->seed, 8);
+  std::memcpy(p + 20, &a->friction, 8);
+  std::memcpy(p + 28, &a->count, 8);
+  std::memcpy(p + kKeepHeader, a->data, sizeof(SlipDatum) * a->count);
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(stress_keep_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_keep_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  const Size len = VARSIZE_ANY_EXHDR(in);
+  const char *p = VARDATA_ANY(in);
+  uint32 magic = 0;
+  int32 kind = 0, resamples = 0;
+  int64 seed = 0, count = -1;
+  double friction = 0;
+  if (len >= kKeepHeader) {
+    std::memcpy(&magic, p, 4);
+    std::memcpy(&kind, p + 4, 4);
+    std::memcpy(&resamples, p + 8, 4);
+    std::memcpy(&seed, p + 12, 8);
+    std::memcpy(&friction, p + 20, 8);
+    std::memcpy(&count, p + 28, 8);
+  }
+  if (magic != kKeepMagic || count < 0 || count > static_cast<int64>(kMaxBootstrapData) ||
+      len != kKeepHeader + sizeof(SlipDatum) * static_cast<Size>(count))
+    bad_serial("stress_keep_deserialize");
+  KeepAgg *a = keep_new(ctx, kind, resamples, seed, friction, count);
+  std::memcpy(a->data, p + kKeepHeader, sizeof(SlipDatum) * count);
+  a->count = count;
+  keep_validate(a);
+  PG_RETURN_POINTER(a);
+}
+
+// Bootstrap inversion: NULL for an empty group, too few data or a degenerate set.
+STRIAE_FUNCTION(stress_bootstrap_final) {
+  KeepAgg *a = keep_state(fcinfo, 0);
+  if (a == nullptr || a->count == 0) PG_RETURN_NULL();
+  keep_validate(a);
+  StressTensor t{};
+  const StressStatus st = guarded([&] {
+    std::sort(a->data, a->data + a->count, datum_less);
+    BootstrapOptions o;
+    o.resamples = a->resamples;
+    o.seed = static_cast<uint64_t>(a->seed);
+    return stress_bootstrap(a->data, static_cast<size_t>(a->count), o, t);
+  });
+  if (st != StressStatus::Ok) PG_RETURN_NULL();
+  return result(t);
+}
+
+// Joint focal inversion: NULL for an empty group, too few mechanisms or a degenerate set.
+STRIAE_FUNCTION(focal_stress_inversion_final) {
+  KeepAgg *a = keep_state(fcinfo, 0);
+  if (a == nullptr || a->count == 0) PG_RETURN_NULL();
+  keep_validate(a);
+  uint8_t *picked = static_cast<uint8_t *>(palloc(static_cast<Size>(a->count)));
+  FocalInversion r{};
+  const StressStatus st = guarded([&] {
+    std::sort(a->data, a->data + a->count, datum_less);
+    FrictionRange f;
+    if (a->friction != 0) {
+      f.mu_min = f.mu_max = a->friction;
+    } else {
+      f.mu_min = kFocalMuMin;
+      f.mu_max = kFocalMuMax;
+      f.step = kFocalMuStep;
+    }
+    return invert_focal(a->data, static_cast<size_t>(a->count), f, picked, r);
+  });
+  pfree(picked);
+  if (st != StressStatus::Ok) PG_RETURN_NULL();
+  return result(r.tensor);
+}
