@@ -22,6 +22,14 @@ char *format_numbers(const double *v, int n) {
   return out;
 }
 
+MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
+  MemoryContext ctx;
+  if (!AggCheckCallContext(fcinfo, &ctx))
+    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED),
+                    errmsg("%s called in non-aggregate context", fn)));
+  return ctx;
+}
+
 Datum float8_array(const double *v, int n) {
   Datum *elems = static_cast<Datum *>(palloc(sizeof(Datum) * n));
   for (int i = 0; i < n; ++i) elems[i] = Float8GetDatum(v[i]);

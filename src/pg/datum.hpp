@@ -28,6 +28,10 @@ char *format_numbers(const double *v, int n);
 // Text datum from a C string.
 inline Datum text_result(const char *s) { return PointerGetDatum(cstring_to_text(s)); }
 
+// The aggregate memory context, or an error if fn is not called as an aggregate
+// support function (a user calling it directly from SQL).
+MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn);
+
 // A float8[] of n values.
 Datum float8_array(const double *v, int n);
 

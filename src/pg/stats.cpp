@@ -13,14 +13,6 @@ using namespace striae_pg;
 
 namespace {
 
-MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
-  MemoryContext ctx;
-  if (!AggCheckCallContext(fcinfo, &ctx))
-    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED),
-                    errmsg("%s called in non-aggregate context", fn)));
-  return ctx;
-}
-
 // The datum's unit vector: a lineation as is, a plane by its pole.
 Vec3 datum_vector(FunctionCallInfo fcinfo, int k, bool is_plane) {
   if (is_plane) return -plane_normal(*arg<Plane>(fcinfo, k));

@@ -392,14 +392,6 @@ STRIAE_FUNCTION(stress_dilation_tendency) {
 
 namespace {
 
-MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
-  MemoryContext ctx;
-  if (!AggCheckCallContext(fcinfo, &ctx))
-    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED),
-                    errmsg("%s called in non-aggregate context", fn)));
-  return ctx;
-}
-
 // The datum (n, u) of a fault_slip argument, as the core's data-keeping functions take it.
 SlipDatum slip_datum(FunctionCallInfo fcinfo, int k) {
   const FaultSlip f = *arg<FaultSlip>(fcinfo, k);
