@@ -52,7 +52,7 @@ UNIT_SRCS    = $(sort $(wildcard tests/unit/*.cpp))
 UNIT_BIN     = $(BUILD)/unit_tests
 UNIT_CXXFLAGS = -std=c++17 $(EIGEN_CFLAGS) $(WARN) -O2 -g -Isrc/core
 
-$(UNIT_BIN): $(CORE_SRCS) $(UNIT_SRCS) $(wildcard src/core/*.hpp)
+$(UNIT_BIN): $(CORE_SRCS) $(UNIT_SRCS) $(wildcard src/core/*.hpp tests/unit/*.hpp)
 	@mkdir -p $(BUILD)
 	g++ $(UNIT_CXXFLAGS) $(CORE_SRCS) $(UNIT_SRCS) -lgtest -lgtest_main -pthread -o $@
 

@@ -1,15 +1,6 @@
 -- Focal-mechanism geometry: auxiliary plane, P/T/B, moment tensor, Kagan
 -- angle, mechanism class.
-SET client_min_messages = warning;
-CREATE EXTENSION IF NOT EXISTS striae;
-RESET client_min_messages;
-CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
-BEGIN
-  EXECUTE q;
-  RETURN 'no error';
-EXCEPTION WHEN OTHERS THEN
-  RETURN SQLSTATE || ': ' || SQLERRM;
-END $$;
+\i sql/include/setup.sql
 
 -- Shearer, Introduction to Seismology, 2nd ed., sec. 9.3: (30, 60, 40) has
 -- auxiliary plane (277.2, 56.2, 143.0)

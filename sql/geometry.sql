@@ -1,16 +1,7 @@
 -- Constructors, accessors and per-datum geometry, with their error paths.
 -- Expected values follow the conventions of DESIGN.md (right-hand rule, NED,
 -- lower hemisphere; derived, common practice, no source) unless a source is named.
-SET client_min_messages = warning;
-CREATE EXTENSION IF NOT EXISTS striae;
-RESET client_min_messages;
-CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
-BEGIN
-  EXECUTE q;
-  RETURN 'no error';
-EXCEPTION WHEN OTHERS THEN
-  RETURN SQLSTATE || ': ' || SQLERRM;
-END $$;
+\i sql/include/setup.sql
 
 -- constructors
 SELECT plane(110, 64), plane_from_dip_direction(200, 64), lineation(300, -30),

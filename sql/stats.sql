@@ -1,17 +1,6 @@
 -- Orientation statistics aggregates: values, NULL/empty/degenerate groups,
 -- sphere_grid I/O, and serial vs parallel agreement.
-SET client_min_messages = warning;
-CREATE EXTENSION IF NOT EXISTS striae;
-RESET client_min_messages;
-CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
-DECLARE d text;
-BEGIN
-  EXECUTE q;
-  RETURN 'no error';
-EXCEPTION WHEN OTHERS THEN
-  GET STACKED DIAGNOSTICS d = PG_EXCEPTION_DETAIL;
-  RETURN SQLSTATE || ': ' || CASE WHEN d <> '' THEN d ELSE SQLERRM END;
-END $$;
+\i sql/include/setup.sql
 
 -- A cluster straddling the horizontal: 000/05 and 180/05 are nearly the same
 -- axis, so the mean is near horizontal at trend 0 (derived: axial data).

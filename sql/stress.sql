@@ -1,18 +1,7 @@
 -- Paleostress: stress_tensor I/O and accessors, per-datum quantities, the
 -- aggregates stress_inversion, right_dihedra, focal_stress_inversion, error paths,
 -- and serial vs parallel agreement.
-SET client_min_messages = warning;
-CREATE EXTENSION IF NOT EXISTS striae;
-RESET client_min_messages;
-CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
-DECLARE d text;
-BEGIN
-  EXECUTE q;
-  RETURN 'no error';
-EXCEPTION WHEN OTHERS THEN
-  GET STACKED DIAGNOSTICS d = PG_EXCEPTION_DETAIL;
-  RETURN SQLSTATE || ': ' || CASE WHEN d <> '' THEN d ELSE SQLERRM END;
-END $$;
+\i sql/include/setup.sql
 
 -- forward tensor: sigma1 030/20, sigma3 125/15 (orthogonalised), Phi 0.4 (invented axes)
 CREATE TABLE stress_truth AS SELECT stress_tensor('030/20', '125/15', 0.4) AS t;

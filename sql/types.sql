@@ -1,19 +1,7 @@
 -- Types plane, lineation, fault_slip: text notations, canonical forms,
 -- float8 output conventions, binary I/O, comparison and every error path.
 \set VERBOSITY terse
-SET client_min_messages = warning;
-CREATE EXTENSION IF NOT EXISTS striae;
-RESET client_min_messages;
--- err(sql): run sql and show SQLSTATE, message and detail of the error it raises
-CREATE FUNCTION pg_temp.err(q text) RETURNS text LANGUAGE plpgsql AS $$
-DECLARE d text;
-BEGIN
-  EXECUTE q;
-  RETURN 'no error';
-EXCEPTION WHEN OTHERS THEN
-  GET STACKED DIAGNOSTICS d = PG_EXCEPTION_DETAIL;
-  RETURN SQLSTATE || ': ' || SQLERRM || CASE WHEN d <> '' THEN ' | ' || d ELSE '' END;
-END $$;
+\i sql/include/setup.sql
 
 -- plane: the accepted notations all give the canonical right-hand-rule form
 SELECT v, v::plane AS canonical FROM (VALUES

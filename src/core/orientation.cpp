@@ -202,6 +202,8 @@ Plane normal_plane(const Vec3 &v) {
 
 Line pole(const Plane &p) { return make_line(norm360(p.strike - 90.0), 90.0 - p.dip); }
 
+Vec3 pole_vector(const Plane &p) { return -plane_normal(p); }
+
 Plane plane_from_pole(const Line &l) {
   return make_plane(norm360(l.trend + 90.0), 90.0 - l.plunge);
 }

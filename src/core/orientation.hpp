@@ -73,6 +73,7 @@ Vec3 dip_vector(double strike_deg, double dip_deg);
 Plane normal_plane(const Vec3 &v);
 
 Line pole(const Plane &p);             // exact in degrees: (strike-90, 90-dip)
+Vec3 pole_vector(const Plane &p);      // lower-hemisphere unit pole, -plane_normal(p)
 Plane plane_from_pole(const Line &l);  // exact inverse of pole()
 double dip_direction(const Plane &p);
 

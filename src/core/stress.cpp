@@ -3,6 +3,7 @@
 #include "stress.hpp"
 
 #include <algorithm>
+#include <tuple>
 #include <cmath>
 #include <cstring>
 #include <vector>
@@ -701,6 +702,20 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
     out.tensor.flags |= kStressHasMisfit;
   }
   return StressStatus::Ok;
+}
+
+SlipDatum slip_datum(const FaultSlip &f) {
+  Vec3 n, u;
+  fault_vectors(f, n, u);
+  return SlipDatum{{n[0], n[1], n[2]}, {u[0], u[1], u[2]}};
+}
+
+void sort_slip_data(SlipDatum *data, size_t count) {
+  std::sort(data, data + count, [](const SlipDatum &x, const SlipDatum &y) {
+    const auto kx = std::tie(x.n[0], x.n[1], x.n[2], x.u[0], x.u[1], x.u[2]);
+    const auto ky = std::tie(y.n[0], y.n[1], y.n[2], y.u[0], y.u[1], y.u[2]);
+    return kx < ky;
+  });
 }
 
 }  // namespace striae

@@ -204,6 +204,12 @@ struct SlipDatum {
 };
 static_assert(sizeof(SlipDatum) == 48 && std::is_trivially_copyable<SlipDatum>::value, "plain");
 
+// The (n, u) pair of a fault-slip datum.
+SlipDatum slip_datum(const FaultSlip &f);
+// Sort data lexicographically by (n, u), so that results computed from kept
+// data (bootstrap, focal inversion) do not depend on row order or plan.
+void sort_slip_data(SlipDatum *data, size_t count);
+
 // Normal equations of the linear inversion. 176 bytes, trivially copyable.
 struct StressAccum {
   int64_t count;    // data added

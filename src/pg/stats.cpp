@@ -15,7 +15,7 @@ namespace {
 
 // The datum's unit vector: a lineation as is, a plane by its pole.
 Vec3 datum_vector(FunctionCallInfo fcinfo, int k, bool is_plane) {
-  if (is_plane) return -plane_normal(*arg<Plane>(fcinfo, k));
+  if (is_plane) return pole_vector(*arg<Plane>(fcinfo, k));
   return line_vector(*arg<Line>(fcinfo, k));
 }
 

@@ -395,16 +395,7 @@ namespace {
 // The datum (n, u) of a fault_slip argument, as the core's data-keeping functions take it.
 SlipDatum slip_datum(FunctionCallInfo fcinfo, int k) {
   const FaultSlip f = *arg<FaultSlip>(fcinfo, k);
-  return guarded([&] {
-    Vec3 n, u;
-    fault_vectors(f, n, u);
-    SlipDatum d;
-    for (int i = 0; i < 3; ++i) {
-      d.n[i] = n[i];
-      d.u[i] = u[i];
-    }
-    return d;
-  });
+  return guarded([&] { return striae::slip_datum(f); });
 }
 
 [[noreturn]] void bad_serial(const char *fn) {
@@ -732,14 +723,6 @@ void keep_validate(const KeepAgg *a) {
   });
 }
 
-bool datum_less(const SlipDatum &x, const SlipDatum &y) {
-  const double *a = x.n, *b = y.n;  // n then u: 6 contiguous doubles
-  for (int i = 0; i < 6; ++i) {
-    const double p = i < 3 ? a[i] : x.u[i - 3], q = i < 3 ? b[i] : y.u[i - 3];
-    if (p != q) return p < q;
-  }
-  return false;
-}
 
 }  // namespace
 
@@ -860,7 +843,7 @@ STRIAE_FUNCTION(stress_bootstrap_final) {
   keep_validate(a);
   StressTensor t{};
   const StressStatus st = guarded([&] {
-    std::sort(a->data, a->data + a->count, datum_less);
+    sort_slip_data(a->data, static_cast<size_t>(a->count));
     BootstrapOptions o;
     o.resamples = a->resamples;
     o.seed = static_cast<uint64_t>(a->seed);
@@ -878,7 +861,7 @@ STRIAE_FUNCTION(focal_stress_inversion_final) {
   uint8_t *picked = static_cast<uint8_t *>(palloc(static_cast<Size>(a->count)));
   FocalInversion r{};
   const StressStatus st = guarded([&] {
-    std::sort(a->data, a->data + a->count, datum_less);
+    sort_slip_data(a->data, static_cast<size_t>(a->count));
     FrictionRange f;
     if (a->friction != 0) {
       f.mu_min = f.mu_max = a->friction;

@@ -4,21 +4,13 @@
 #include <cmath>
 
 #include "focal.hpp"
+#include "test_rng.hpp"
 
 using namespace striae;
 
 namespace {
 
-struct Rng {
-  uint64_t s;
-  explicit Rng(uint64_t seed) : s(seed) {}
-  double uniform() {
-    uint64_t z = (s += 0x9e3779b97f4a7c15ULL);
-    z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
-    z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
-    return ((z ^ (z >> 31)) >> 11) * (1.0 / 9007199254740992.0);
-  }
-};
+using striae_test::Rng;
 
 void expect_fault(const FaultSlip &f, double s, double d, double r, double tol) {
   EXPECT_NEAR(f.strike, s, tol);

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "orientation.hpp"
+#include "test_rng.hpp"
 
 using namespace striae;
 
@@ -18,18 +19,7 @@ void expect_error(ErrorKind k, void (*f)()) {
   }
 }
 
-// splitmix64, a fixed-sequence generator for reproducible test data.
-struct Rng {
-  uint64_t s;
-  explicit Rng(uint64_t seed) : s(seed) {}
-  uint64_t next() {
-    uint64_t z = (s += 0x9e3779b97f4a7c15ULL);
-    z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9ULL;
-    z = (z ^ (z >> 27)) * 0x94d049bb133111ebULL;
-    return z ^ (z >> 31);
-  }
-  double uniform() { return (next() >> 11) * (1.0 / 9007199254740992.0); }
-};
+using striae_test::Rng;
 
 }  // namespace
 

@@ -3,6 +3,7 @@
 // its source beside it. Random data come from a seeded splitmix64 of our own
 // (std:: distributions differ between platforms).
 #include "stats.hpp"
+#include "test_rng.hpp"
 
 #include <gtest/gtest.h>
 
@@ -14,34 +15,7 @@ using namespace striae;
 
 namespace {
 
-// splitmix64 (a public-domain 64-bit mixer): deterministic on every platform.
-struct Rng {
-  uint64_t s;
-  explicit Rng(uint64_t seed) : s(seed) {}
-  // Next 64 random bits.
-  uint64_t next() {
-    uint64_t z = (s += 0x9E3779B97F4A7C15ull);
-    z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ull;
-    z = (z ^ (z >> 27)) * 0x94D049BB133111EBull;
-    return z ^ (z >> 31);
-  }
-  // Uniform double in [0, 1).
-  double uniform() { return static_cast<double>(next() >> 11) * 0x1.0p-53; }
-  // Uniform unit vector on the sphere (z uniform in [-1,1]: Archimedes).
-  Vec3 unit() {
-    const double z = 2 * uniform() - 1, ph = 2 * kPi * uniform();
-    const double r = std::sqrt(std::max(0.0, 1 - z * z));
-    return Vec3(r * std::cos(ph), r * std::sin(ph), z);
-  }
-  // Unit vector uniform within a cone of half-angle max_deg around unit axis a.
-  Vec3 in_cone(const Vec3 &a, double max_deg) {
-    const double cz = 1 - uniform() * (1 - std::cos(rad(max_deg)));
-    const double ph = 2 * kPi * uniform();
-    Vec3 u = a.unitOrthogonal(), w = a.cross(u);
-    const double sz = std::sqrt(std::max(0.0, 1 - cz * cz));
-    return cz * a + sz * (std::cos(ph) * u + std::sin(ph) * w);
-  }
-};
+using striae_test::Rng;
 
 // Lower-hemisphere canonical line vector of any vector, as the SQL layer would pass it.
 Vec3 as_line(const Vec3 &v) { return line_vector(vector_line(v)); }
