@@ -31,6 +31,37 @@ inline void comp_merge(CompSum &a, const CompSum &b) {
   a.lo += b.lo;
 }
 
+// Move the tensor's block into its compensated sums (pending is left to the caller).
+inline void fold_tensor_block(TensorState &s) {
+  for (int i = 0; i < 6; ++i) {
+    comp_add(s.t[i], s.block[i]);
+    s.block[i] = 0.0;
+  }
+}
+
+// Move the aligned block of a Fisher state into its compensated sums.
+inline void fold_aligned_block(FisherState &s) {
+  for (int k = 0; k < kFisherRefAxes; ++k)
+    for (int c = 0; c < 3; ++c) {
+      comp_add(s.aligned[k][c], s.block[c][k]);
+      s.block[c][k] = 0.0;
+    }
+}
+
+// Count one row and add its outer product to the block (no folding).
+inline void tensor_add_block(TensorState &s, const Vec3 &x) {
+  if (s.n >= kMaxCount)
+    throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
+  ++s.n;
+  ++s.pending;
+  s.block[kXX] += x(0) * x(0);
+  s.block[kYY] += x(1) * x(1);
+  s.block[kZZ] += x(2) * x(2);
+  s.block[kXY] += x(0) * x(1);
+  s.block[kXZ] += x(0) * x(2);
+  s.block[kYZ] += x(1) * x(2);
+}
+
 // Throw the BadState error for a malformed state, naming what is wrong.
 [[noreturn]] void bad_state(const char *which, const std::string &what) {
   throw Error(ErrorKind::BadState, std::string("malformed ") + which + " aggregate state",
@@ -45,7 +76,10 @@ std::string num(double v) {
 }
 
 // Unit vector of a datum; rejects zero and non-finite input (DataError).
+// Line vectors from the SQL types are unit to rounding already: keep them as
+// they are (saves a square root and a division per row).
 Vec3 unit_datum(const Vec3 &x) {
+  if (std::fabs(x.squaredNorm() - 1.0) <= 4e-16) return x;
   const double len = x.norm();
   if (!std::isfinite(len) || !(len > 0))
     throw Error(ErrorKind::DataError, "cannot add a zero or non-finite vector to an orientation statistic");
@@ -63,9 +97,15 @@ void check_comp(const CompSum &c, const char *which, const char *name) {
 inline double sum_tol(int64_t n) { return 1e-9 * (static_cast<double>(n) + 1.0); }
 
 // The tensor checks, reporting under the name of the enclosing state.
-void validate_tensor_as(const TensorState &s, const char *which) {
-  if (s.n < 0) bad_state(which, "row count " + std::to_string(s.n) + " is negative");
-  if (s.n > kMaxCount) bad_state(which, "row count " + std::to_string(s.n) + " exceeds 2^53");
+void validate_tensor_as(const TensorState &s0, const char *which) {
+  if (s0.n < 0) bad_state(which, "row count " + std::to_string(s0.n) + " is negative");
+  if (s0.n > kMaxCount) bad_state(which, "row count " + std::to_string(s0.n) + " exceeds 2^53");
+  if (s0.pending < 0 || s0.pending >= kBlockRows || s0.pending > s0.n)
+    bad_state(which, "pending row count " + std::to_string(s0.pending) + " is out of range");
+  for (int i = 0; i < 6; ++i)
+    if (!std::isfinite(s0.block[i])) bad_state(which, "a block sum is not finite");
+  TensorState s = s0;  // the checks below see block and compensated sums together
+  fold_tensor_block(s);
   static const char *names[6] = {"xx", "yy", "zz", "xy", "xz", "yz"};
   for (int i = 0; i < 6; ++i) check_comp(s.t[i], which, names[i]);
   if (s.n == 0) {
@@ -97,13 +137,16 @@ void combine_tensor(TensorState &a, const TensorState &b) {
   if (a.n > kMaxCount - b.n)
     throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
   a.n += b.n;
-  for (int i = 0; i < 6; ++i) comp_merge(a.t[i], b.t[i]);
+  for (int i = 0; i < 6; ++i) {
+    comp_merge(a.t[i], b.t[i]);
+    comp_add(a.t[i], b.block[i]);  // b's pending rows join a's compensated sums
+  }
 }
 
 // Tensor sums divided by n, in TensorComponent order.
 void mean_tensor(const TensorState &s, double m[6]) {
   const double n = static_cast<double>(s.n);
-  for (int i = 0; i < 6; ++i) m[i] = comp_value(s.t[i]) / n;
+  for (int i = 0; i < 6; ++i) m[i] = (comp_value(s.t[i]) + s.block[i]) / n;
 }
 
 // 1/sqrt2 and 1/sqrt3 to double precision (derived).
@@ -117,6 +160,13 @@ const double kRefAxes[kFisherRefAxes][3] = {
     {kR2, kR2, 0},    {kR2, -kR2, 0},    {kR2, 0, kR2},    {kR2, 0, -kR2},       // face diagonals
     {0, kR2, kR2},    {0, kR2, -kR2},                                            //
     {kR3, kR3, kR3},  {kR3, kR3, -kR3},  {kR3, -kR3, kR3}, {kR3, -kR3, -kR3},    // body diagonals
+};
+
+// The same axes component-major (row c holds component c of every axis).
+const double kRefAxesT[3][kFisherRefAxes] = {
+    {1, 0, 0, kR2, kR2, kR2, kR2, 0, 0, kR3, kR3, kR3, kR3},
+    {0, 1, 0, kR2, -kR2, 0, 0, kR2, kR2, kR3, kR3, -kR3, -kR3},
+    {0, 0, 1, 0, 0, kR2, -kR2, kR2, -kR2, kR3, -kR3, kR3, -kR3},
 };
 
 }  // namespace
@@ -159,22 +209,21 @@ void principal_axes(const double m[6], double values[3], Vec3 vectors[3]) {
 // All sums start at exact zeros, so an empty state is recognisable in validate.
 void tensor_init(TensorState &s) {
   s.n = 0;
-  for (int i = 0; i < 6; ++i) s.t[i] = CompSum{0.0, 0.0};
+  s.pending = 0;
+  for (int i = 0; i < 6; ++i) {
+    s.t[i] = CompSum{0.0, 0.0};
+    s.block[i] = 0.0;
+  }
 }
 
 // One datum adds its outer product; no division by n until the result, so the
 // sums stay additive across combine.
 void tensor_add(TensorState &s, const Vec3 &x0) {
-  const Vec3 x = unit_datum(x0);
-  if (s.n >= kMaxCount)
-    throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
-  ++s.n;
-  comp_add(s.t[kXX], x(0) * x(0));
-  comp_add(s.t[kYY], x(1) * x(1));
-  comp_add(s.t[kZZ], x(2) * x(2));
-  comp_add(s.t[kXY], x(0) * x(1));
-  comp_add(s.t[kXZ], x(0) * x(2));
-  comp_add(s.t[kYZ], x(1) * x(2));
+  tensor_add_block(s, unit_datum(x0));
+  if (s.pending == kBlockRows) {
+    fold_tensor_block(s);
+    s.pending = 0;
+  }
 }
 
 // Combine is plain addition of counts and compensated sums.
@@ -259,17 +308,30 @@ Vec3 fisher_reference_axis(int k) {
 void fisher_init(FisherState &s) {
   tensor_init(s.tensor);
   for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c) s.aligned[k][c] = CompSum{0.0, 0.0};
+    for (int c = 0; c < 3; ++c) {
+      s.aligned[k][c] = CompSum{0.0, 0.0};
+      s.block[c][k] = 0.0;
+    }
 }
 
 // One datum updates the tensor and every aligned resultant (13 dot products).
 void fisher_add(FisherState &s, const Vec3 &x0) {
   const Vec3 x = unit_datum(x0);
-  tensor_add(s.tensor, x);
-  for (int k = 0; k < kFisherRefAxes; ++k) {
-    const double d = x(0) * kRefAxes[k][0] + x(1) * kRefAxes[k][1] + x(2) * kRefAxes[k][2];
-    const double sg = d < 0 ? -1.0 : 1.0;  // sign(0) = +1, fixed
-    for (int c = 0; c < 3; ++c) comp_add(s.aligned[k][c], sg * x(c));
+  tensor_add_block(s.tensor, x);
+  const double x0c = x(0), x1c = x(1), x2c = x(2);
+  // Component-major arrays, mapped as Eigen arrays so the 13 updates run in
+  // SIMD packets (13 doubles have no alignment requirement; Map is unaligned).
+  using Arr = Eigen::Array<double, kFisherRefAxes, 1>;
+  const Eigen::Map<const Arr> rx(kRefAxesT[0]), ry(kRefAxesT[1]), rz(kRefAxesT[2]);
+  const Arr d = x0c * rx + x1c * ry + x2c * rz;
+  const Arr sg = (d < 0).select(Arr::Constant(-1.0), Arr::Constant(1.0));  // sign(0) = +1, fixed
+  Eigen::Map<Arr>(s.block[0]) += sg * x0c;
+  Eigen::Map<Arr>(s.block[1]) += sg * x1c;
+  Eigen::Map<Arr>(s.block[2]) += sg * x2c;
+  if (s.tensor.pending == kBlockRows) {
+    fold_tensor_block(s.tensor);
+    fold_aligned_block(s);
+    s.tensor.pending = 0;
   }
 }
 
@@ -277,13 +339,22 @@ void fisher_add(FisherState &s, const Vec3 &x0) {
 void fisher_combine(FisherState &a, const FisherState &b) {
   combine_tensor(a.tensor, b.tensor);
   for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c) comp_merge(a.aligned[k][c], b.aligned[k][c]);
+    for (int c = 0; c < 3; ++c) {
+      comp_merge(a.aligned[k][c], b.aligned[k][c]);
+      comp_add(a.aligned[k][c], b.block[c][k]);
+    }
 }
 
 // Tensor checks plus the bounds every aligned resultant must obey.
-void fisher_validate(const FisherState &s) {
+void fisher_validate(const FisherState &s0) {
   static const char *which = "Fisher mean";
-  validate_tensor_as(s.tensor, which);
+  validate_tensor_as(s0.tensor, which);
+  for (int k = 0; k < kFisherRefAxes; ++k)
+    for (int c = 0; c < 3; ++c)
+      if (!std::isfinite(s0.block[c][k])) bad_state(which, "an aligned block sum is not finite");
+  FisherState s = s0;  // check block and compensated sums together
+  fold_tensor_block(s.tensor);
+  fold_aligned_block(s);
   for (int k = 0; k < kFisherRefAxes; ++k)
     for (int c = 0; c < 3; ++c) check_comp(s.aligned[k][c], which, "aligned resultant");
   if (s.tensor.n == 0) {
@@ -312,8 +383,11 @@ void fisher_validate(const FisherState &s) {
 }
 
 // Finalise: pick the aligned resultant of the reference axis nearest to e1.
-FisherResult fisher_result(const FisherState &s) {
-  fisher_validate(s);
+FisherResult fisher_result(const FisherState &s0) {
+  fisher_validate(s0);
+  FisherState s = s0;
+  fold_tensor_block(s.tensor);
+  fold_aligned_block(s);
   FisherResult r{};
   r.n = s.tensor.n;
   r.reference_axis = -1;

@@ -68,9 +68,20 @@ TEST(StatsState, PlainStructsForPallocMemory) {
   // DESIGN/STYLE: aggregate states in palloc memory: trivially copyable and
   // destructible, 8-byte alignment at most (static_asserts hold; sizes pinned
   // so a layout change is noticed by the SQL serialisation).
-  EXPECT_EQ(sizeof(TensorState), 8u + 6 * 16);
-  EXPECT_EQ(sizeof(FisherState), sizeof(TensorState) + 13 * 3 * 16);
+  EXPECT_EQ(sizeof(TensorState), 8u + 6 * 16 + 8 + 6 * 8);  // n, sums, pending, block
+  EXPECT_EQ(sizeof(FisherState), sizeof(TensorState) + 13 * 3 * 16 + 13 * 3 * 8);  // + aligned, block
   EXPECT_LE(alignof(FisherState), 8u);
+  // The component-major copy of the reference axes used by fisher_add matches the table.
+  {
+    FisherState one;
+    fisher_init(one);
+    const Vec3 x = Vec3(0.3, -0.5, 0.8).normalized();
+    fisher_add(one, x);
+    for (int k = 0; k < kFisherRefAxes; ++k) {
+      const double sg = fisher_reference_axis(k).dot(x) < 0 ? -1.0 : 1.0;
+      for (int c = 0; c < 3; ++c) EXPECT_EQ(one.block[c][k], sg * x(c)) << k;
+    }
+  }
 }
 
 TEST(StatsState, MemcpyRoundTripMidStream) {
@@ -338,7 +349,7 @@ TEST(FisherReference, ExactAgainstE1AlignedSumWithinBound) {
     // e1 of the same tensor (the definition used by METHODS.md).
     double m[6], lam[3];
     Vec3 ev[3];
-    for (int i = 0; i < 6; ++i) m[i] = comp_value(s.tensor.t[i]) / 80;
+    for (int i = 0; i < 6; ++i) m[i] = (comp_value(s.tensor.t[i]) + s.tensor.block[i]) / 80;
     principal_axes(m, lam, ev);
     Vec3 ref = Vec3::Zero();
     double maxang = 0;
@@ -449,9 +460,14 @@ TEST(FisherValidate, RejectsMalformedStates) {
   // Each corruption is one a user calling the support functions directly
   // could hand in; all must be BadState (documented in stats.hpp).
   Rng g(32);
-  FisherState good;
+  // 20 rows moved into the compensated sums by a combine (a combine folds the
+  // other state's block), so the corruptions below hit the data.
+  FisherState good, part;
   fisher_init(good);
-  for (int i = 0; i < 20; ++i) fisher_add(good, g.unit());
+  fisher_init(part);
+  for (int i = 0; i < 20; ++i) fisher_add(part, g.unit());
+  fisher_combine(good, part);
+  ASSERT_EQ(good.tensor.pending, 0);
   auto expect_bad = [](const FisherState &s, const char *what) {
     try {
       fisher_validate(s);
@@ -485,6 +501,18 @@ TEST(FisherValidate, RejectsMalformedStates) {
   s = good;
   for (int c = 0; c < 3; ++c) s.aligned[9][c].hi = -s.aligned[9][c].hi;
   expect_bad(s, "aligned resultant pointing away from its axis");
+  s = part;  // rows still in the block
+  s.block[1][3] = NAN;
+  expect_bad(s, "NaN aligned block sum");
+  s = part;
+  s.tensor.pending = kBlockRows;
+  expect_bad(s, "pending rows out of range");
+  s = part;
+  s.tensor.pending = 21;
+  expect_bad(s, "more pending rows than rows");
+  s = part;
+  for (int c = 0; c < 3; ++c) s.block[c][9] = -s.block[c][9];
+  expect_bad(s, "aligned block pointing away from its axis");
   FisherState e;
   fisher_init(e);
   e.aligned[2][2].hi = 1;
