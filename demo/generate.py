@@ -130,3 +130,177 @@ with open(os.path.join(out, "bedding.csv"), "w", newline="") as f, \
             lt, lp = (at + 15) % 360, min(85.0, ap + 10)
             for _ in range(15):
                 wl.writerow([site, unit_name, f"{round((lt + rnd.gauss(0, 6)) % 360, 1)}/{round(min(89.0, abs(lp + rnd.gauss(0, 5))), 1)}"])
+
+
+# ---------------------------------------------------------------------------
+# Paleostress part (issue 4): fault-slip data and focal mechanisms generated from
+# KNOWN, invented stress states, so the demo can compare what the inversions
+# recover with the truth. Conventions as in striae: North-East-Down vectors,
+# right-hand-rule strike (dip direction = strike + 90), Aki & Richards rake (from
+# the strike direction to the hanging-wall slip, positive = reverse), stress
+# compression positive with sigma1 the most compressive. A separate seeded
+# generator keeps the files above unchanged.
+srnd = random.Random(4471)
+
+# Invented stress states per site: (sigma1 trend, plunge), (sigma3 trend, plunge),
+# shape ratio Phi = (s2 - s3)/(s1 - s3). sigma1 and sigma3 are exactly orthogonal.
+TRUE_STRESS = {
+    "KESTREL": ((105.0, 6.0), (285.0, 84.0), 0.40),   # compression, sigma1 WNW-ESE
+    "MARLOW": ((260.0, 80.0), (80.0, 10.0), 0.55),    # extension, sigma3 ENE-WSW
+    "TARN": ((290.0, 4.0), (20.0, 0.0), 0.45),        # strike-slip, sigma1 WNW-ESE
+}
+# An invented older stress phase per site: the source of some of the deliberately
+# incompatible ("planted") field faults.
+OLDER_STRESS = {
+    "KESTREL": ((20.0, 5.0), (110.0, 0.0), 0.50),     # strike-slip
+    "MARLOW": ((170.0, 5.0), (350.0, 85.0), 0.30),    # compression
+    "TARN": ((200.0, 85.0), (20.0, 5.0), 0.50),       # extension
+}
+N_FIELD, N_REVERSED, N_OLDER = 40, 2, 2      # per site: 36 compatible + 4 planted (10 %)
+N_FOCAL = 25                                 # focal mechanisms per site
+NOISE_SD = 3.0                               # degrees on strike, dip and rake
+MIN_SHEAR = 0.2                              # |tau| / (s1 - s3); the maximum is 0.5
+
+
+def dot(a, b):
+    return sum(x * y for x, y in zip(a, b))
+
+
+def stress_matrix(s1, s3, phi):
+    """Compression-positive tensor with eigenvalues 1, Phi, 0 on sigma1, sigma2, sigma3."""
+    v1, v3 = vec(*s1), vec(*s3)
+    assert abs(dot(v1, v3)) < 1e-12, "sigma1 and sigma3 must be orthogonal"
+    v2 = cross(v3, v1)
+    return [[v1[i] * v1[j] + phi * v2[i] * v2[j] for j in range(3)] for i in range(3)]
+
+
+def plane_frame(s, d):
+    """Strike vector, up-dip vector and upward normal (into the hanging wall) of a plane."""
+    s, d = math.radians(s), math.radians(d)
+    strike_v = (math.cos(s), math.sin(s), 0.0)
+    updip = (math.cos(d) * math.sin(s), -math.cos(d) * math.cos(s), -math.sin(d))
+    normal = (-math.sin(d) * math.sin(s), math.sin(d) * math.cos(s), -math.cos(d))
+    return strike_v, updip, normal
+
+
+def slip_vector(s, d, r):
+    """Hanging-wall slip of strike/dip/rake (Aki & Richards)."""
+    strike_v, updip, _ = plane_frame(s, d)
+    r = math.radians(r)
+    return tuple(math.cos(r) * a + math.sin(r) * b for a, b in zip(strike_v, updip))
+
+
+def wallace_bott(S, s, d):
+    """Rake of the resolved shear on plane s/d, and the shear magnitude.
+
+    The traction on the plane with upward normal n is S n (compression positive);
+    its shear part tau = S n - (n . S n) n is the shear the footwall exerts on the
+    hanging wall with the sign of compression, so the hanging wall slips along -tau
+    (Wallace 1951, Bott 1959: slip parallel to the resolved shear stress).
+    """
+    strike_v, updip, n = plane_frame(s, d)
+    t = [dot(row, n) for row in S]
+    tn = dot(t, n)
+    u = [-(t[i] - tn * n[i]) for i in range(3)]
+    mag = math.sqrt(dot(u, u))
+    return math.degrees(math.atan2(dot(u, updip), dot(u, strike_v))), mag
+
+
+def misfit_deg(S, s, d, r):
+    """Angle (0..180) between the slip of s/d/r and the Wallace-Bott slip on its plane."""
+    pr, _ = wallace_bott(S, s, d)
+    return math.degrees(math.acos(max(-1.0, min(1.0, dot(slip_vector(s, d, r), slip_vector(s, d, pr))))))
+
+
+def from_vectors(n, u):
+    """strike/dip/rake of the plane with normal n and hanging-wall slip u (either sign of n)."""
+    if n[2] > 0:                      # use the upward normal; (n, u) and (-n, -u) are the same couple
+        n, u = tuple(-x for x in n), tuple(-x for x in u)
+    d = math.degrees(math.acos(max(-1.0, min(1.0, -n[2]))))
+    s = math.degrees(math.atan2(-n[0], n[1])) % 360
+    strike_v, updip, _ = plane_frame(s, d)
+    return s, d, math.degrees(math.atan2(dot(u, updip), dot(u, strike_v)))
+
+
+def auxiliary_of(s, d, r):
+    """The other nodal plane: its normal is the slip vector, its slip the normal."""
+    _, _, n = plane_frame(s, d)
+    return from_vectors(slip_vector(s, d, r), n)
+
+
+def random_plane():
+    """Uniformly distributed normal, dip between 10 and 85 degrees."""
+    c = srnd.uniform(math.cos(math.radians(85)), math.cos(math.radians(10)))
+    return srnd.uniform(0, 360), math.degrees(math.acos(c))
+
+
+def sheared_plane(S):
+    """A random plane carrying enough resolved shear for a defined slip direction."""
+    while True:
+        s, d = random_plane()
+        r, mag = wallace_bott(S, s, d)
+        if mag >= MIN_SHEAR:
+            return s, d, r
+
+
+def noisy(s, d, r):
+    s = (s + srnd.gauss(0, NOISE_SD)) % 360
+    d = min(89.0, max(1.0, d + srnd.gauss(0, NOISE_SD)))
+    r = (r + srnd.gauss(0, NOISE_SD) + 180) % 360 - 180
+    return s, d, r
+
+
+def wrap180(r):
+    return (r + 180) % 360 - 180
+
+
+with open(os.path.join(out, "stress_truth.csv"), "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["site", "sigma1", "sigma3", "shape_ratio", "older_sigma1", "older_sigma3", "older_shape_ratio"])
+    for site, (s1, s3, phi) in TRUE_STRESS.items():
+        o1, o3, ophi = OLDER_STRESS[site]
+        stress_matrix(o1, o3, ophi)   # checks orthogonality
+        w.writerow([site, f"{s1[0]:g}/{s1[1]:g}", f"{s3[0]:g}/{s3[1]:g}", phi,
+                    f"{o1[0]:g}/{o1[1]:g}", f"{o3[0]:g}/{o3[1]:g}", ophi])
+
+# Field fault-slip data: whole degrees as read off a compass, plus an answer-key
+# column `planted` (empty, "reversed" or "older phase") that the inversions never see.
+with open(os.path.join(out, "fault_slip_data.csv"), "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["site", "station", "fault", "planted"])
+    for site, truth in TRUE_STRESS.items():
+        S = stress_matrix(*truth)
+        S_old = stress_matrix(*OLDER_STRESS[site])
+        kinds = [""] * (N_FIELD - N_REVERSED - N_OLDER) + ["reversed"] * N_REVERSED + ["older phase"] * N_OLDER
+        srnd.shuffle(kinds)
+        for j, kind in enumerate(kinds):
+            while True:
+                s, d, r = noisy(*sheared_plane(S_old if kind == "older phase" else S))
+                if kind == "reversed":
+                    r = wrap180(r + 180)
+                s, d, r = round(s) % 360, round(d), round(r)
+                m = misfit_deg(S, s, d, r)
+                # Planted faults must be clearly incompatible with the site's stress
+                # (an older-phase slip can fit the younger stress by chance).
+                if kind == "" or m > 45:
+                    break
+            w.writerow([site, f"{site[0]}F-{j + 1:02d}", f"{s}/{d}/{r}", kind])
+
+# Focal mechanisms: drawn like the field faults (no planted outliers), one decimal,
+# and the nodal plane listed is the fault plane or its auxiliary at random, as a
+# catalogue would give it; `listed_plane` is the answer key.
+with open(os.path.join(out, "stress_mechanisms.csv"), "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["event_id", "site", "depth_km", "mechanism", "listed_plane"])
+    k = 0
+    for site, truth in TRUE_STRESS.items():
+        S = stress_matrix(*truth)
+        for _ in range(N_FOCAL):
+            k += 1
+            s, d, r = noisy(*sheared_plane(S))
+            listed = "auxiliary" if srnd.random() < 0.5 else "fault"
+            if listed == "auxiliary":
+                s, d, r = auxiliary_of(s, d, r)
+            w.writerow([f"HS{k:04d}", site, round(srnd.uniform(2, 18), 1),
+                        f"{round(s % 360, 1)}/{round(d, 1)}/{round(wrap180(r), 1)}", listed])
+print(f"paleostress demo data written to {out}/")

@@ -44,3 +44,114 @@ SELECT site, grid_max(g) AS densest_pole, round((SELECT max(value) FROM grid_cel
 \copy (SELECT site, unit, count(*) AS n, fold_axis(bedding) AS fold_axis, mean_plane(bedding) AS mean_bedding FROM bedding GROUP BY site, unit ORDER BY site, unit) TO 'demo-out/fold_axes.csv' WITH (FORMAT csv, HEADER)
 \copy (SELECT site, unit, (f).n, (f).mean, (f).alpha95, (f).kappa FROM (SELECT site, unit, fisher_mean(lineation) f FROM lineation_obs GROUP BY site, unit) s ORDER BY site, unit) TO 'demo-out/mean_lineations.csv' WITH (FORMAT csv, HEADER)
 \copy (SELECT site, c.trend, c.plunge, c.value FROM (SELECT site, density_grid(bedding, 5) g FROM bedding GROUP BY site) d, grid_cells(g) c ORDER BY site, c.plunge, c.trend) TO 'demo-out/bedding_pole_density.csv' WITH (FORMAT csv, HEADER)
+
+-- ---------------------------------------------------------------------------
+-- Paleostress (issue 4): field fault-slip data and focal mechanisms generated
+-- from the invented stress states in stress_truth (demo/README.md). Interpretive
+-- results: see the caution in demo/README.md.
+-- lineation as trend/plunge to 0.1 degree, for display only
+CREATE FUNCTION pg_temp.tp(l lineation) RETURNS text LANGUAGE sql IMMUTABLE AS
+  $$ SELECT to_char(trend(l), 'FM000.0') || '/' || to_char(plunge(l), 'FM00.0') $$;
+CREATE FUNCTION pg_temp.r1(x float8) RETURNS numeric LANGUAGE sql IMMUTABLE AS $$ SELECT round(x::numeric, 1) $$;
+CREATE FUNCTION pg_temp.r2(x float8) RETURNS numeric LANGUAGE sql IMMUTABLE AS $$ SELECT round(x::numeric, 2) $$;
+
+\echo '== Invented true stress state per site (the generator''s input)'
+SELECT site, pg_temp.tp(sigma1) AS sigma1, pg_temp.tp(sigma2(t)) AS sigma2, pg_temp.tp(sigma3) AS sigma3,
+       shape_ratio AS phi, pg_temp.r1(shmax_azimuth(t)) AS shmax, stress_regime(t) AS regime,
+       pg_temp.r2(regime_index(t)) AS a_phi
+  FROM (SELECT *, stress_tensor(sigma1, sigma3, shape_ratio) t FROM stress_truth) s ORDER BY site;
+
+\echo '== Generator check: misfit of the field faults under the TRUE stress (degrees)'
+SELECT site, count(*) FILTER (WHERE planted IS NULL) AS compatible,
+       pg_temp.r1(avg(m) FILTER (WHERE planted IS NULL)) AS mean_misfit,
+       pg_temp.r1(max(m) FILTER (WHERE planted IS NULL)) AS max_misfit,
+       count(*) FILTER (WHERE planted IS NOT NULL) AS planted,
+       pg_temp.r1(min(m) FILTER (WHERE planted IS NOT NULL)) AS min_planted_misfit
+  FROM (SELECT o.*, misfit(fault, stress_tensor(sigma1, sigma3, shape_ratio)) m
+          FROM fault_slip_obs o JOIN stress_truth USING (site)) s
+ GROUP BY site ORDER BY site;
+
+\echo '== Generator check: focal mechanisms, listed nodal plane and misfit of the true fault plane under the TRUE stress'
+SELECT site, count(*) AS events, count(*) FILTER (WHERE listed_plane = 'auxiliary') AS auxiliary_listed,
+       pg_temp.r1(avg(misfit(CASE WHEN listed_plane = 'auxiliary' THEN auxiliary(mechanism) ELSE mechanism END,
+                             stress_tensor(sigma1, sigma3, shape_ratio)))) AS mean_misfit_true_plane
+  FROM focal_event JOIN stress_truth USING (site) GROUP BY site ORDER BY site;
+
+\set QUIET on
+-- Field faults: Michael inversion with 500 bootstrap resamples (fixed seed), over
+-- all faults as a field party would first run it.
+CREATE TEMP TABLE field_inv AS
+  SELECT site, stress_inversion(fault, 500, 20261) AS t FROM fault_slip_obs GROUP BY site;
+-- Misfit of each fault under its site's inverted tensor; > 30 degrees is flagged.
+CREATE TEMP TABLE fault_check AS
+  SELECT o.site, o.station, o.fault, o.planted, misfit(o.fault, i.t) AS misfit,
+         coalesce(misfit(o.fault, i.t) > 30, false) AS flagged
+    FROM fault_slip_obs o JOIN field_inv i USING (site);
+-- The same inversion without the flagged faults.
+CREATE TEMP TABLE clean_inv AS
+  SELECT site, stress_inversion(fault, 500, 20261) AS t FROM fault_check WHERE NOT flagged GROUP BY site;
+-- Focal mechanisms: joint inversion (either nodal plane listed), with the demo's
+-- own bootstrap in SQL (focal_stress_inversion has none): 500 resamples with
+-- replacement drawn by md5 of (site, resample, draw), so fixed; cones are the 95th
+-- percentile of the axis angle to the full-data solution, the Phi interval the
+-- 2.5..97.5 percentiles.
+CREATE TEMP TABLE focal_inv AS
+  SELECT site, focal_stress_inversion(mechanism) AS t FROM focal_event GROUP BY site;
+CREATE TEMP TABLE focal_boot AS
+  WITH ev AS (SELECT site, mechanism, row_number() OVER (PARTITION BY site ORDER BY event_id) AS i,
+                     count(*) OVER (PARTITION BY site) AS n FROM focal_event),
+       draw AS (SELECT s.site, r, 1 + mod(mod(('x' || substr(md5(s.site || ':' || r || ':' || k), 1, 8))::bit(32)::int, s.n) + s.n, s.n) AS i
+                  FROM (SELECT DISTINCT site, n FROM ev) s, generate_series(1, 500) r, generate_series(1, s.n) k),
+       boot AS (SELECT d.site, d.r, focal_stress_inversion(ev.mechanism) AS t
+                  FROM draw d JOIN ev USING (site, i) GROUP BY d.site, d.r)
+  SELECT b.site, percentile_cont(0.95) WITHIN GROUP (ORDER BY sigma1(b.t) <-> sigma1(f.t)) AS cone1,
+         percentile_cont(0.95) WITHIN GROUP (ORDER BY sigma3(b.t) <-> sigma3(f.t)) AS cone3,
+         percentile_cont(0.025) WITHIN GROUP (ORDER BY shape_ratio(b.t)) AS phi_lo,
+         percentile_cont(0.975) WITHIN GROUP (ORDER BY shape_ratio(b.t)) AS phi_hi
+    FROM boot b JOIN focal_inv f USING (site) WHERE b.t IS NOT NULL GROUP BY b.site;
+CREATE TEMP TABLE rd AS
+  SELECT site, 'right_dihedra_faults'::text AS method, count(*) AS n, right_dihedra(fault, 5) AS g FROM fault_slip_obs GROUP BY site
+  UNION ALL
+  SELECT site, 'right_dihedra_focal', count(*), right_dihedra(mechanism, 5) FROM focal_event GROUP BY site;
+
+CREATE TEMP VIEW stress_result AS
+  SELECT r.*, r.sigma1 <-> s.sigma1 AS sigma1_err, r.sigma3 <-> s.sigma3 AS sigma3_err, s.shape_ratio AS true_phi
+    FROM (SELECT m.site, m.method, data_count(t) AS n, sigma1(t) AS sigma1, coalesce(sigma1_confidence(t), b.cone1) AS cone1,
+                 sigma3(t) AS sigma3, coalesce(sigma3_confidence(t), b.cone3) AS cone3, shape_ratio(t) AS phi,
+                 coalesce((shape_ratio_interval(t))[1], b.phi_lo) AS phi_lo, coalesce((shape_ratio_interval(t))[2], b.phi_hi) AS phi_hi,
+                 shmax_azimuth(t) AS shmax, stress_regime(t) AS regime, regime_index(t) AS a_phi, mean_misfit(t) AS misfit
+            FROM (SELECT site, 1 AS o, 'field_faults' AS method, t FROM field_inv
+                  UNION ALL SELECT site, 2, 'field_faults_unflagged', t FROM clean_inv
+                  UNION ALL SELECT site, 3, 'focal_joint', t FROM focal_inv) m
+            LEFT JOIN focal_boot b ON b.site = m.site AND m.method = 'focal_joint'
+          UNION ALL
+          SELECT site, method, n, grid_max(g), NULL, grid_min(g), NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL FROM rd) r
+    JOIN stress_truth s USING (site);
+\set QUIET off
+
+\echo '== Recovered stress per site and method vs the invented truth (degrees; cones are 95 % half-angles)'
+\echo '   field_faults: Michael inversion, 500 bootstrap resamples; field_faults_unflagged: the same without'
+\echo '   faults misfitting > 30 deg; focal_joint: Vavrycuk joint inversion, SQL bootstrap of 500 resamples;'
+\echo '   right_dihedra_*: grid_max / grid_min of a 5-degree right-dihedra grid'
+SELECT site, method, n, pg_temp.tp(sigma1) AS sigma1, pg_temp.r1(cone1) AS cone1,
+       pg_temp.tp(sigma3) AS sigma3, pg_temp.r1(cone3) AS cone3,
+       pg_temp.r2(phi) AS phi, '[' || pg_temp.r2(phi_lo) || ', ' || pg_temp.r2(phi_hi) || ']' AS phi_95,
+       pg_temp.r1(shmax) AS shmax, regime, pg_temp.r2(a_phi) AS a_phi, pg_temp.r1(misfit) AS misfit,
+       pg_temp.r1(sigma1_err) AS s1_err, pg_temp.r1(sigma3_err) AS s3_err, true_phi
+  FROM stress_result ORDER BY site, method;
+
+\echo '== Faults flagged incompatible (misfit > 30 deg under the site''s field inversion) and the answer key'
+SELECT site, station, fault, slip_sense(fault) AS sense, pg_temp.r1(misfit) AS misfit,
+       coalesce(planted, 'no') AS planted
+  FROM fault_check WHERE flagged ORDER BY site, misfit DESC;
+
+\echo '== Flagging against the answer key per site'
+SELECT site, count(*) AS faults, count(*) FILTER (WHERE planted IS NOT NULL) AS planted,
+       count(*) FILTER (WHERE flagged) AS flagged,
+       count(*) FILTER (WHERE flagged AND planted IS NOT NULL) AS planted_flagged,
+       count(*) FILTER (WHERE NOT flagged AND planted IS NOT NULL) AS planted_missed,
+       count(*) FILTER (WHERE flagged AND planted IS NULL) AS false_alarms
+  FROM fault_check GROUP BY site ORDER BY site;
+
+\copy (SELECT site, method, n, round(trend(sigma1)::numeric, 2) AS sigma1_trend, round(plunge(sigma1)::numeric, 2) AS sigma1_plunge, round(cone1::numeric, 2) AS sigma1_cone95, round(trend(sigma3)::numeric, 2) AS sigma3_trend, round(plunge(sigma3)::numeric, 2) AS sigma3_plunge, round(cone3::numeric, 2) AS sigma3_cone95, round(phi::numeric, 3) AS shape_ratio, round(phi_lo::numeric, 3) AS shape_ratio_low, round(phi_hi::numeric, 3) AS shape_ratio_high, round(shmax::numeric, 2) AS shmax_azimuth, regime, round(a_phi::numeric, 3) AS regime_index, round(misfit::numeric, 2) AS mean_misfit, round(sigma1_err::numeric, 2) AS sigma1_angle_to_true, round(sigma3_err::numeric, 2) AS sigma3_angle_to_true, true_phi AS true_shape_ratio FROM stress_result ORDER BY site, method) TO 'demo-out/stress_by_site.csv' WITH (FORMAT csv, HEADER)
+\copy (SELECT site, station, fault, slip_sense(fault) AS sense, round(misfit::numeric, 2) AS misfit, planted IS NOT NULL AS planted, planted AS planted_kind FROM fault_check WHERE flagged ORDER BY site, station) TO 'demo-out/flagged_faults.csv' WITH (FORMAT csv, HEADER)
