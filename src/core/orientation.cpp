@@ -232,8 +232,14 @@ Plane plane_from_pole(const Line &l) {
 double dip_direction(const Plane &p) { return norm360(p.strike + 90.0); }
 
 void fault_vectors(const FaultSlip &f, Vec3 &n, Vec3 &u) {
-  n = plane_normal(Plane{f.strike, f.dip});
-  u = cosd(f.rake) * strike_vector(f.strike) - sind(f.rake) * dip_vector(f.strike, f.dip);
+  // One sincos per angle (this runs for every row of the stress aggregates).
+  double sf, cf, sd, cd, sr, cr;
+  sincosd(f.strike, sf, cf);
+  sincosd(f.dip, sd, cd);
+  sincosd(f.rake, sr, cr);
+  n = Vec3(-sd * sf, sd * cf, -cd);
+  // u = cos r s - sin r dd, s = (cf, sf, 0), dd = (-cd sf, cd cf, sd)
+  u = Vec3(cr * cf + sr * cd * sf, cr * sf - sr * cd * cf, -sr * sd);
 }
 
 FaultSlip fault_from_vectors(const Vec3 &n0, const Vec3 &u0) {

@@ -409,23 +409,21 @@ void check_slip_datum(const double n[3], const double u[3]) {
                 "The normal and slip of a fault-slip datum are unit vectors at right angles.");
 }
 
-// 15 + 5 normal-equation terms of one datum.
+// 15 + 5 normal-equation terms of one datum, written out: the shear traction
+// of each basis tensor is a_k = w_k - (n.w_k) n, with w_k = E_k n for
+// E1 = diag(1,0,-1), E2 = sym(1,2), E3 = sym(1,3), E4 = diag(0,1,-1), E5 = sym(2,3)
+// (s33 = -(s11 + s22)); out holds a_k.a_l (upper triangle, row-major, kTri
+// order) and then a_k.u. Straight-line code: this runs for every row.
 void stress_contribution(const double n[3], const double u[3], double out[20]) {
-  // w_k = E_k n for the basis tensors of (s11, s12, s13, s22, s23) with s33 = -(s11 + s22):
-  // E1 = diag(1,0,-1), E2 = sym(1,2), E3 = sym(1,3), E4 = diag(0,1,-1), E5 = sym(2,3).
-  const double w[5][3] = {{n[0], 0.0, -n[2]},
-                          {n[1], n[0], 0.0},
-                          {n[2], 0.0, n[0]},
-                          {0.0, n[1], -n[2]},
-                          {0.0, n[2], n[1]}};
-  double a[5][3];  // shear traction of E_k: a_k = w_k - (n.w_k) n
-  for (int k = 0; k < 5; ++k) {
-    const double q = n[0] * w[k][0] + n[1] * w[k][1] + n[2] * w[k][2];
-    for (int j = 0; j < 3; ++j) a[k][j] = w[k][j] - q * n[j];
-  }
+  const double n0 = n[0], n1 = n[1], n2 = n[2];
+  const double q[5] = {n0 * n0 - n2 * n2, 2 * n0 * n1, 2 * n0 * n2, n1 * n1 - n2 * n2, 2 * n1 * n2};
+  const double a0[5] = {n0 - q[0] * n0, n1 - q[1] * n0, n2 - q[2] * n0, -q[3] * n0, -q[4] * n0};
+  const double a1[5] = {-q[0] * n1, n0 - q[1] * n1, -q[2] * n1, n1 - q[3] * n1, n2 - q[4] * n1};
+  const double a2[5] = {-n2 - q[0] * n2, -q[1] * n2, n0 - q[2] * n2, -n2 - q[3] * n2, n1 - q[4] * n2};
+  int i = 0;
   for (int k = 0; k < 5; ++k)
-    for (int l = k; l < 5; ++l) out[kTri[k][l]] = a[k][0] * a[l][0] + a[k][1] * a[l][1] + a[k][2] * a[l][2];
-  for (int k = 0; k < 5; ++k) out[15 + k] = a[k][0] * u[0] + a[k][1] * u[1] + a[k][2] * u[2];
+    for (int l = k; l < 5; ++l) out[i++] = a0[k] * a0[l] + a1[k] * a1[l] + a2[k] * a2[l];
+  for (int k = 0; k < 5; ++k) out[15 + k] = a0[k] * u[0] + a1[k] * u[1] + a2[k] * u[2];
 }
 
 // Empty state: all zero.
