@@ -155,3 +155,7 @@ SELECT site, count(*) AS faults, count(*) FILTER (WHERE planted IS NOT NULL) AS 
 
 \copy (SELECT site, method, n, round(trend(sigma1)::numeric, 2) AS sigma1_trend, round(plunge(sigma1)::numeric, 2) AS sigma1_plunge, round(cone1::numeric, 2) AS sigma1_cone95, round(trend(sigma3)::numeric, 2) AS sigma3_trend, round(plunge(sigma3)::numeric, 2) AS sigma3_plunge, round(cone3::numeric, 2) AS sigma3_cone95, round(phi::numeric, 3) AS shape_ratio, round(phi_lo::numeric, 3) AS shape_ratio_low, round(phi_hi::numeric, 3) AS shape_ratio_high, round(shmax::numeric, 2) AS shmax_azimuth, regime, round(a_phi::numeric, 3) AS regime_index, round(misfit::numeric, 2) AS mean_misfit, round(sigma1_err::numeric, 2) AS sigma1_angle_to_true, round(sigma3_err::numeric, 2) AS sigma3_angle_to_true, true_phi AS true_shape_ratio FROM stress_result ORDER BY site, method) TO 'demo-out/stress_by_site.csv' WITH (FORMAT csv, HEADER)
 \copy (SELECT site, station, fault, slip_sense(fault) AS sense, round(misfit::numeric, 2) AS misfit, planted IS NOT NULL AS planted, planted AS planted_kind FROM fault_check WHERE flagged ORDER BY site, station) TO 'demo-out/flagged_faults.csv' WITH (FORMAT csv, HEADER)
+
+\echo '== Friction coefficient chosen by the joint focal inversion (searched over 0.2..1.0) per site'
+SELECT site, friction(t) AS friction, round(mean_misfit(t)::numeric, 1) AS mean_misfit
+  FROM (SELECT site, focal_stress_inversion(mechanism) AS t FROM focal_event GROUP BY site) f ORDER BY site;

@@ -68,7 +68,13 @@ SELECT grid_kind(g), grid_data_count(g), angle(grid_max(g), '030/20') < 5 AS max
 SELECT data_count(s), angle(sigma1(s), '030/20') < 10 AS s1_near, angle(sigma3(s), sigma3(t)) < 10 AS s3_near,
        mean_misfit(s) IS NOT NULL AS has_misfit, s::text LIKE '%focal_joint%' AS flagged
   FROM (SELECT focal_stress_inversion(auxiliary(fs), 0.6) s FROM stress_slips) a, stress_truth;
-SELECT angle(sigma1(s), '030/20') < 10 AS s1_near FROM (SELECT focal_stress_inversion(fs) s FROM stress_slips) a;
+SELECT angle(sigma1(s), '030/20') < 10 AS s1_near, friction(s) BETWEEN 0.2 AND 1.0 AS searched_friction_in_range,
+       s::text::stress_tensor::text = s::text AS text_round_trip
+  FROM (SELECT focal_stress_inversion(fs) s FROM stress_slips) a;
+-- the friction a joint inversion used is reported; other tensors have none
+SELECT friction(focal_stress_inversion(fs, 0.6)) AS given_friction, friction(stress_inversion(fs)) IS NULL AS linear_has_none
+  FROM stress_slips;
+SELECT friction('{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 5, "friction": 0.4, "flags": ["focal_joint"]}'::stress_tensor);
 
 -- NULL results: empty group, too few data (fewer than 4), parallel faults (degenerate)
 SELECT stress_inversion(fs) IS NULL AS empty FROM stress_slips WHERE false;
@@ -96,7 +102,9 @@ SELECT q, pg_temp.err(q) FROM (VALUES
   ('SELECT right_dihedra(fs, CASE WHEN g < 5 THEN 5 ELSE 10 END) FROM stress_slips'),
   ('SELECT stress_inversion(fs, 0, 1) FROM stress_slips'),
   ('SELECT stress_inversion(fs, CASE WHEN g < 5 THEN 5 ELSE 10 END, 1) FROM stress_slips'),
-  ('SELECT focal_stress_inversion(fs, 9) FROM stress_slips')) t(q);
+  ('SELECT focal_stress_inversion(fs, 9) FROM stress_slips'),
+  ('SELECT ''{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 5, "friction": 9}''::stress_tensor'),
+  ('SELECT ''{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 5, "friction": 0.5, "friction": 0.5}''::stress_tensor')) t(q);
 -- a hand-typed tensor that passes validation
 SELECT '{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 3, "misfit": 2.5, "flags": ["focal_joint"]}'::stress_tensor;
 

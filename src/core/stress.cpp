@@ -158,7 +158,7 @@ void check_stress_tensor(const StressTensor &t) {
   if (t.version != kStressTensorVersion) bad("unknown version");
   if (t.flags & ~kStressKnownFlags) bad("unknown flag bits");
   const double fields[] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed, t.mean_misfit,
-                           t.cone[0], t.cone[1], t.cone[2], t.phi_lo, t.phi_hi};
+                           t.cone[0], t.cone[1], t.cone[2], t.phi_lo, t.phi_hi, t.friction};
   for (double v : fields)
     if (!std::isfinite(v)) bad("non-finite component");
   double c[6];
@@ -182,6 +182,11 @@ void check_stress_tensor(const StressTensor &t) {
     if (!(0 <= t.phi_lo && t.phi_lo <= t.phi_hi && t.phi_hi <= 1)) bad("shape ratio interval outside 0..1");
   } else if (t.phi_lo != 0 || t.phi_hi != 0) {
     bad("undefined shape ratio interval is not zero");
+  }
+  if (t.flags & kStressHasFriction) {
+    if (!(t.friction >= kMinFriction && t.friction <= kMaxFriction)) bad("friction outside 0.001..5");
+  } else if (t.friction != 0) {
+    bad("undefined friction is not zero");
   }
 }
 
@@ -667,7 +672,8 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
   bool have = false;
   StressStatus last = StressStatus::Ok;
   for (int j = 0; j < steps; ++j) {
-    const double mu = std::min(fr.mu_max, fr.mu_min + j * fr.step);
+    // Rounded to 1e-12 so a search over 0.2, 0.3, ... reports 0.3, not 0.30000000000000004.
+    const double mu = std::min(fr.mu_max, std::round((fr.mu_min + j * fr.step) * 1e12) / 1e12);
     StressTensor t;
     double score;
     int32_t iters;
@@ -699,6 +705,8 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
     out.tensor.mean_misfit = *m;
     out.tensor.flags |= kStressHasMisfit;
   }
+  out.tensor.friction = out.friction;
+  out.tensor.flags |= kStressHasFriction;
   return StressStatus::Ok;
 }
 

@@ -38,10 +38,11 @@ constexpr uint32_t kStressHasCones = 1u << 1;        // cone[0..2] are defined
 constexpr uint32_t kStressHasPhiInterval = 1u << 2;  // phi_lo, phi_hi are defined
 constexpr uint32_t kStressFocalJoint = 1u << 3;      // from the joint focal inversion
 constexpr uint32_t kStressNotConverged = 1u << 4;    // focal plane picking cycled or hit its iteration limit
-constexpr uint32_t kStressKnownFlags = 0x1f;
+constexpr uint32_t kStressHasFriction = 1u << 5;     // friction is defined (joint focal inversion)
+constexpr uint32_t kStressKnownFlags = 0x3f;
 constexpr uint32_t kStressTensorVersion = 1;
 
-// A reduced stress tensor and its quality measures. 112 bytes, plain doubles and
+// A reduced stress tensor and its quality measures. 120 bytes, plain doubles and
 // integers only (8-byte aligned, no Eigen members) so it can live in palloc memory
 // and be sent in binary as it is.
 struct StressTensor {
@@ -52,11 +53,12 @@ struct StressTensor {
   double cone[3];      // 95 % confidence half-angles of sigma1..3, degrees 0..90 (kStressHasCones)
   double phi_lo;       // shape ratio Phi interval (kStressHasPhiInterval), 0 <= lo <= hi <= 1
   double phi_hi;
+  double friction;     // friction coefficient used by the joint focal inversion (kStressHasFriction)
   int64_t data_count;  // data (fault-slip data or mechanisms) behind the tensor; 0 if built forward
   uint32_t flags;      // kStress* bits
   uint32_t version;    // kStressTensorVersion; binary recv checks it
 };
-static_assert(sizeof(StressTensor) == 112, "stress_tensor layout is part of the binary format");
+static_assert(sizeof(StressTensor) == 120, "stress_tensor layout is part of the binary format");
 static_assert(alignof(StressTensor) == 8, "stress_tensor must be double aligned");
 static_assert(std::is_trivially_copyable<StressTensor>::value, "stored as raw bytes");
 static_assert(std::is_trivially_destructible<StressTensor>::value, "lives in palloc memory");

@@ -4,16 +4,14 @@
 // right_dihedra and focal_stress_inversion. All math is in src/core (stress.hpp,
 // dihedra.hpp, bootstrap.hpp); every call into it goes through guarded().
 //
-// Text form of stress_tensor (keys in this order on output; optional keys are
-// omitted when undefined and accepted in any order on input):
-//   {"components": [nn, ee, dd, ne, nd, ed], "n": 12, "misfit": 4.5,
-//    "cones": [c1, c2, c3], "phi_interval": [lo, hi], "flags": ["focal_joint"]}
-// Components are compression positive, NED, trace 0, unit Frobenius norm.
+// Text form of stress_tensor: see src/core/stress_text.hpp (parsed there,
+// printed here with float8out_internal so it follows extra_float_digits).
 #include "grid.hpp"
 
 #include "../core/bootstrap.hpp"
 #include "../core/dihedra.hpp"
 #include "../core/stress.hpp"
+#include "../core/stress_text.hpp"
 
 #include <algorithm>
 #include <charconv>
@@ -25,145 +23,6 @@ using namespace striae_pg;
 namespace {
 
 // ---- text form ------------------------------------------------------------------
-
-constexpr const char *kFlagFocal = "focal_joint";
-constexpr const char *kFlagNotConverged = "not_converged";
-
-// A small reader for the text form above. Pure C++ (runs inside guarded()).
-class TensorReader {
- public:
-  explicit TensorReader(const char *s) : text_(s), p_(s) {}
-
-  StressTensor read() {
-    StressTensor t{};
-    t.version = kStressTensorVersion;
-    bool have_c = false, have_n = false, have_m = false, have_cones = false, have_phi = false,
-         have_flags = false;
-    expect('{');
-    skip_ws();
-    if (*p_ == '}') fail("\"components\" and \"n\" are required");
-    for (;;) {
-      const std::string key = string_token();
-      expect(':');
-      if (key == "components") {
-        once(have_c, key);
-        double c[6];
-        numbers(c, 6);
-        t.nn = c[0]; t.ee = c[1]; t.dd = c[2]; t.ne = c[3]; t.nd = c[4]; t.ed = c[5];
-      } else if (key == "n") {
-        once(have_n, key);
-        t.data_count = integer();
-      } else if (key == "misfit") {
-        once(have_m, key);
-        t.mean_misfit = number();
-        t.flags |= kStressHasMisfit;
-      } else if (key == "cones") {
-        once(have_cones, key);
-        numbers(t.cone, 3);
-        t.flags |= kStressHasCones;
-      } else if (key == "phi_interval") {
-        once(have_phi, key);
-        double v[2];
-        numbers(v, 2);
-        t.phi_lo = v[0];
-        t.phi_hi = v[1];
-        t.flags |= kStressHasPhiInterval;
-      } else if (key == "flags") {
-        once(have_flags, key);
-        flags(t.flags);
-      } else {
-        fail("unknown key \"" + key + "\"");
-      }
-      skip_ws();
-      if (*p_ == ',') { ++p_; continue; }
-      if (*p_ == '}') { ++p_; break; }
-      fail("expected \",\" or \"}\"");
-    }
-    skip_ws();
-    if (*p_ != '\0') fail("unexpected text after \"}\"");
-    if (!have_c || !have_n) fail("\"components\" and \"n\" are required");
-    return t;
-  }
-
- private:
-  const char *text_;
-  const char *p_;
-
-  [[noreturn]] void fail(const std::string &why) const {
-    throw Error(ErrorKind::InvalidText,
-                std::string("invalid input syntax for type stress_tensor: \"") + text_ + "\"",
-                why + "; accepted: {\"components\": [nn, ee, dd, ne, nd, ed], \"n\": count} and optional "
-                      "\"misfit\", \"cones\" [3], \"phi_interval\" [2], \"flags\" [\"focal_joint\", \"not_converged\"]");
-  }
-  void skip_ws() {
-    while (*p_ == ' ' || *p_ == '\t' || *p_ == '\n' || *p_ == '\r') ++p_;
-  }
-  void expect(char c) {
-    skip_ws();
-    if (*p_ != c) fail(std::string("expected \"") + c + "\"");
-    ++p_;
-  }
-  void once(bool &seen, const std::string &key) {
-    if (seen) fail("key \"" + key + "\" given twice");
-    seen = true;
-  }
-  std::string string_token() {
-    expect('"');
-    const char *b = p_;
-    while (*p_ && *p_ != '"') ++p_;
-    if (*p_ != '"') fail("unterminated string");
-    std::string s(b, p_);
-    ++p_;
-    return s;
-  }
-  // The run of characters a number can be made of (sign, digits, point, exponent).
-  const char *number_end() {
-    skip_ws();
-    const char *e = p_;
-    while ((*e >= '0' && *e <= '9') || *e == '-' || *e == '+' || *e == '.' || *e == 'e' || *e == 'E') ++e;
-    if (e == p_) fail("expected a number");
-    return e;
-  }
-  double number() {
-    const char *e = number_end();
-    double v = 0;
-    auto r = std::from_chars(p_, e, v, std::chars_format::general);
-    if (r.ec != std::errc() || r.ptr != e) fail("bad number");
-    p_ = e;
-    return v;
-  }
-  int64_t integer() {
-    const char *e = number_end();
-    int64_t v = 0;
-    auto r = std::from_chars(p_, e, v);
-    if (r.ec != std::errc() || r.ptr != e) fail("\"n\" must be an integer");
-    p_ = e;
-    return v;
-  }
-  void numbers(double *out, int n) {
-    expect('[');
-    for (int i = 0; i < n; ++i) {
-      if (i) expect(',');
-      out[i] = number();
-    }
-    expect(']');
-  }
-  void flags(uint32_t &f) {
-    expect('[');
-    skip_ws();
-    if (*p_ == ']') { ++p_; return; }
-    for (;;) {
-      const std::string s = string_token();
-      if (s == kFlagFocal) f |= kStressFocalJoint;
-      else if (s == kFlagNotConverged) f |= kStressNotConverged;
-      else fail("unknown flag \"" + s + "\"");
-      skip_ws();
-      if (*p_ == ',') { ++p_; continue; }
-      if (*p_ == ']') { ++p_; return; }
-      fail("expected \",\" or \"]\"");
-    }
-  }
-};
 
 void append_number(StringInfo b, double v) {
   char *s = float8out_internal(v);
@@ -190,7 +49,7 @@ StressTensor tensor_arg(FunctionCallInfo fcinfo, int k) {
   return t;
 }
 
-// Wire format of send/recv: one version byte, then the 12 float8 fields in
+// Wire format of send/recv: one version byte, then the 13 float8 fields in
 // struct order, data_count as int8 and flags as int4.
 constexpr int kWireVersion = 1;
 
@@ -201,7 +60,7 @@ constexpr int kWireVersion = 1;
 STRIAE_FUNCTION(stress_tensor_in) {
   const char *s = PG_GETARG_CSTRING(0);
   const StressTensor t = guarded([&] {
-    StressTensor v = TensorReader(s).read();
+    StressTensor v = parse_stress_tensor(s);
     check_stress_tensor(v);
     return v;
   });
@@ -229,11 +88,15 @@ STRIAE_FUNCTION(stress_tensor_out) {
     appendStringInfoString(&b, ", \"phi_interval\": ");
     append_numbers(&b, v, 2);
   }
+  if (t.flags & kStressHasFriction) {
+    appendStringInfoString(&b, ", \"friction\": ");
+    append_number(&b, t.friction);
+  }
   if (t.flags & (kStressFocalJoint | kStressNotConverged)) {
     appendStringInfoString(&b, ", \"flags\": [");
-    if (t.flags & kStressFocalJoint) appendStringInfo(&b, "\"%s\"", kFlagFocal);
+    if (t.flags & kStressFocalJoint) appendStringInfo(&b, "\"%s\"", kStressFlagFocal);
     if ((t.flags & kStressFocalJoint) && (t.flags & kStressNotConverged)) appendStringInfoString(&b, ", ");
-    if (t.flags & kStressNotConverged) appendStringInfo(&b, "\"%s\"", kFlagNotConverged);
+    if (t.flags & kStressNotConverged) appendStringInfo(&b, "\"%s\"", kStressFlagNotConverged);
     appendStringInfoChar(&b, ']');
   }
   appendStringInfoChar(&b, '}');
@@ -248,8 +111,8 @@ STRIAE_FUNCTION(stress_tensor_recv) {
                     errmsg("invalid binary format version %d for type stress_tensor", version),
                     errdetail("This build reads version %d.", kWireVersion)));
   StressTensor t{};
-  double *f[12] = {&t.nn, &t.ee, &t.dd, &t.ne, &t.nd, &t.ed, &t.mean_misfit,
-                   &t.cone[0], &t.cone[1], &t.cone[2], &t.phi_lo, &t.phi_hi};
+  double *f[13] = {&t.nn, &t.ee, &t.dd, &t.ne, &t.nd, &t.ed, &t.mean_misfit,
+                   &t.cone[0], &t.cone[1], &t.cone[2], &t.phi_lo, &t.phi_hi, &t.friction};
   for (double *p : f) *p = pq_getmsgfloat8(buf);
   t.data_count = pq_getmsgint64(buf);
   t.flags = static_cast<uint32_t>(pq_getmsgint(buf, 4));
@@ -260,8 +123,8 @@ STRIAE_FUNCTION(stress_tensor_recv) {
 
 STRIAE_FUNCTION(stress_tensor_send) {
   const StressTensor t = tensor_arg(fcinfo, 0);
-  const double f[12] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed, t.mean_misfit,
-                        t.cone[0], t.cone[1], t.cone[2], t.phi_lo, t.phi_hi};
+  const double f[13] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed, t.mean_misfit,
+                        t.cone[0], t.cone[1], t.cone[2], t.phi_lo, t.phi_hi, t.friction};
   StringInfoData buf;
   pq_begintypsend(&buf);
   pq_sendbyte(&buf, kWireVersion);
@@ -323,6 +186,12 @@ STRIAE_FUNCTION(stress_regime_index) {
 STRIAE_FUNCTION(stress_data_count) {
   const StressTensor t = tensor_arg(fcinfo, 0);
   PG_RETURN_INT64(t.data_count);
+}
+
+STRIAE_FUNCTION(stress_friction) {
+  const StressTensor t = tensor_arg(fcinfo, 0);
+  if (!(t.flags & kStressHasFriction)) PG_RETURN_NULL();
+  PG_RETURN_FLOAT8(t.friction);
 }
 
 STRIAE_FUNCTION(stress_mean_misfit) {

@@ -13,10 +13,10 @@ CREATE FUNCTION stress_tensor_send(stress_tensor) RETURNS bytea
 CREATE TYPE stress_tensor (
   INPUT = stress_tensor_in, OUTPUT = stress_tensor_out,
   RECEIVE = stress_tensor_recv, SEND = stress_tensor_send,
-  INTERNALLENGTH = 112, ALIGNMENT = double, STORAGE = plain
+  INTERNALLENGTH = 120, ALIGNMENT = double, STORAGE = plain
 );
 COMMENT ON TYPE stress_tensor IS
-  'reduced stress tensor (compression positive, NED, trace 0, unit norm) with its data count and optional quality measures; text form {"components": [nn, ee, dd, ne, nd, ed], "n": count, "misfit": .., "cones": [..], "phi_interval": [..], "flags": [..]}';
+  'reduced stress tensor (compression positive, NED, trace 0, unit norm) with its data count and optional quality measures; text form {"components": [nn, ee, dd, ne, nd, ed], "n": count, "misfit": .., "cones": [..], "phi_interval": [..], "friction": .., "flags": [..]}';
 COMMENT ON FUNCTION stress_tensor_in(cstring) IS 'text input of stress_tensor (validated: trace 0 and unit norm within 1e-9, ranges of the quality measures)';
 COMMENT ON FUNCTION stress_tensor_out(stress_tensor) IS 'text output of stress_tensor (float8 conventions; undefined measures omitted)';
 COMMENT ON FUNCTION stress_tensor_recv(internal) IS 'binary input of stress_tensor (version byte checked, value validated)';
@@ -54,6 +54,11 @@ COMMENT ON FUNCTION regime_index(stress_tensor) IS
 CREATE FUNCTION data_count(stress_tensor) RETURNS bigint
   AS 'MODULE_PATHNAME', 'stress_data_count' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION data_count(stress_tensor) IS 'number of data behind the tensor (0 for a tensor built from axes)';
+CREATE FUNCTION friction(stress_tensor) RETURNS float8
+  AS 'MODULE_PATHNAME', 'stress_friction' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
+COMMENT ON FUNCTION friction(stress_tensor) IS
+  'friction coefficient the joint focal inversion used (the given one, or the one its search chose); NULL for other tensors';
+
 CREATE FUNCTION mean_misfit(stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_mean_misfit' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION mean_misfit(stress_tensor) IS
@@ -178,7 +183,7 @@ CREATE AGGREGATE focal_stress_inversion(fault_slip) (
   COMBINEFUNC = stress_keep_combine, SERIALFUNC = stress_keep_serialize,
   DESERIALFUNC = stress_keep_deserialize, PARALLEL = SAFE);
 COMMENT ON AGGREGATE focal_stress_inversion(fault_slip) IS
-  'joint stress inversion of focal mechanisms (Vavrycuk 2014): picks the more unstable nodal plane of each mechanism iteratively, friction searched over 0.2..1.0 in steps of 0.1; exact mean misfit of the picked planes; keeps the group''s data (at most 1,000,000); NULL for an empty group, fewer than 4 mechanisms or a degenerate set. Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
+  'joint stress inversion of focal mechanisms (Vavrycuk 2014): picks the more unstable nodal plane of each mechanism iteratively, friction searched over 0.2..1.0 in steps of 0.1 (the chosen value is friction(result)); exact mean misfit of the picked planes; keeps the group''s data (at most 1,000,000); NULL for an empty group, fewer than 4 mechanisms or a degenerate set. Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
 CREATE AGGREGATE focal_stress_inversion(fault_slip, friction float8) (
   SFUNC = focal_stress_inversion_friction_accum, STYPE = internal, FINALFUNC = focal_stress_inversion_final,
   FINALFUNC_MODIFY = READ_WRITE,
