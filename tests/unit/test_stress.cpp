@@ -810,3 +810,41 @@ TEST(Focal, WeightsActAsMultiplicities) {
   EXPECT_NEAR(sa, sb, 1e-12);
   EXPECT_EQ(ia, ib);
 }
+
+// Text form of stress_tensor (stress_text.hpp; our own format, no source).
+#include "stress_text.hpp"
+
+TEST(StressText, ParsesEveryKeyAndRejectsBadInput) {
+  const StressTensor t = parse_stress_tensor(
+      "{\"components\": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], \"n\": 12, "
+      "\"misfit\": 4.5, \"cones\": [10, 20, 30], \"phi_interval\": [0.2, 0.4], "
+      "\"friction\": 0.6, \"flags\": [\"focal_joint\", \"not_converged\"]}");
+  EXPECT_NO_THROW(check_stress_tensor(t));
+  EXPECT_EQ(t.data_count, 12);
+  EXPECT_EQ(t.mean_misfit, 4.5);
+  EXPECT_EQ(t.cone[2], 30);
+  EXPECT_EQ(t.phi_hi, 0.4);
+  EXPECT_EQ(t.friction, 0.6);
+  EXPECT_EQ(t.flags, kStressHasMisfit | kStressHasCones | kStressHasPhiInterval | kStressHasFriction |
+                         kStressFocalJoint | kStressNotConverged);
+  // Keys in any order; optional keys absent leave their fields 0 and flags clear.
+  const StressTensor u = parse_stress_tensor("{\"n\": 0, \"components\": [0, 0, 0, 1, 0, 0]}");
+  EXPECT_EQ(u.flags, 0u);
+  EXPECT_EQ(u.ne, 1);
+  for (const char *bad : {"", "{}", "{\"n\": 1}", "{\"components\": [1, 2], \"n\": 1}",
+                          "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1.5}",
+                          "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1, \"n\": 1}",
+                          "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1, \"flags\": [\"odd\"]}",
+                          "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1} x"}) {
+    try {
+      parse_stress_tensor(bad);
+      ADD_FAILURE() << "accepted: " << bad;
+    } catch (const Error &e) {
+      EXPECT_EQ(e.kind, ErrorKind::InvalidText) << bad;
+    }
+  }
+  // A value out of range parses but fails the check.
+  StressTensor w = parse_stress_tensor(
+      "{\"components\": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], \"n\": 1, \"friction\": 9}");
+  EXPECT_THROW(check_stress_tensor(w), Error);
+}
