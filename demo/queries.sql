@@ -90,25 +90,10 @@ CREATE TEMP TABLE fault_check AS
 -- The same inversion without the flagged faults.
 CREATE TEMP TABLE clean_inv AS
   SELECT site, stress_inversion(fault, 500, 20261) AS t FROM fault_check WHERE NOT flagged GROUP BY site;
--- Focal mechanisms: joint inversion (either nodal plane listed), with the demo's
--- own bootstrap in SQL (focal_stress_inversion has none): 500 resamples with
--- replacement drawn by md5 of (site, resample, draw), so fixed; cones are the 95th
--- percentile of the axis angle to the full-data solution, the Phi interval the
--- 2.5..97.5 percentiles.
+-- Focal mechanisms: joint inversion (either nodal plane listed, friction searched)
+-- with bootstrap confidence (500 resamples, fixed seed).
 CREATE TEMP TABLE focal_inv AS
-  SELECT site, focal_stress_inversion(mechanism) AS t FROM focal_event GROUP BY site;
-CREATE TEMP TABLE focal_boot AS
-  WITH ev AS (SELECT site, mechanism, row_number() OVER (PARTITION BY site ORDER BY event_id) AS i,
-                     count(*) OVER (PARTITION BY site) AS n FROM focal_event),
-       draw AS (SELECT s.site, r, 1 + mod(mod(('x' || substr(md5(s.site || ':' || r || ':' || k), 1, 8))::bit(32)::int, s.n) + s.n, s.n) AS i
-                  FROM (SELECT DISTINCT site, n FROM ev) s, generate_series(1, 500) r, generate_series(1, s.n) k),
-       boot AS (SELECT d.site, d.r, focal_stress_inversion(ev.mechanism) AS t
-                  FROM draw d JOIN ev USING (site, i) GROUP BY d.site, d.r)
-  SELECT b.site, percentile_cont(0.95) WITHIN GROUP (ORDER BY sigma1(b.t) <-> sigma1(f.t)) AS cone1,
-         percentile_cont(0.95) WITHIN GROUP (ORDER BY sigma3(b.t) <-> sigma3(f.t)) AS cone3,
-         percentile_cont(0.025) WITHIN GROUP (ORDER BY shape_ratio(b.t)) AS phi_lo,
-         percentile_cont(0.975) WITHIN GROUP (ORDER BY shape_ratio(b.t)) AS phi_hi
-    FROM boot b JOIN focal_inv f USING (site) WHERE b.t IS NOT NULL GROUP BY b.site;
+  SELECT site, focal_stress_inversion(mechanism, NULL, 500, 20261) AS t FROM focal_event GROUP BY site;
 CREATE TEMP TABLE rd AS
   SELECT site, 'right_dihedra_faults'::text AS method, count(*) AS n, right_dihedra(fault, 5) AS g FROM fault_slip_obs GROUP BY site
   UNION ALL
@@ -116,14 +101,13 @@ CREATE TEMP TABLE rd AS
 
 CREATE TEMP VIEW stress_result AS
   SELECT r.*, r.sigma1 <-> s.sigma1 AS sigma1_err, r.sigma3 <-> s.sigma3 AS sigma3_err, s.shape_ratio AS true_phi
-    FROM (SELECT m.site, m.method, data_count(t) AS n, sigma1(t) AS sigma1, coalesce(sigma1_confidence(t), b.cone1) AS cone1,
-                 sigma3(t) AS sigma3, coalesce(sigma3_confidence(t), b.cone3) AS cone3, shape_ratio(t) AS phi,
-                 coalesce((shape_ratio_interval(t))[1], b.phi_lo) AS phi_lo, coalesce((shape_ratio_interval(t))[2], b.phi_hi) AS phi_hi,
+    FROM (SELECT m.site, m.method, data_count(t) AS n, sigma1(t) AS sigma1, sigma1_confidence(t) AS cone1,
+                 sigma3(t) AS sigma3, sigma3_confidence(t) AS cone3, shape_ratio(t) AS phi,
+                 (shape_ratio_interval(t))[1] AS phi_lo, (shape_ratio_interval(t))[2] AS phi_hi,
                  shmax_azimuth(t) AS shmax, stress_regime(t) AS regime, regime_index(t) AS a_phi, mean_misfit(t) AS misfit
             FROM (SELECT site, 1 AS o, 'field_faults' AS method, t FROM field_inv
                   UNION ALL SELECT site, 2, 'field_faults_unflagged', t FROM clean_inv
                   UNION ALL SELECT site, 3, 'focal_joint', t FROM focal_inv) m
-            LEFT JOIN focal_boot b ON b.site = m.site AND m.method = 'focal_joint'
           UNION ALL
           SELECT site, method, n, grid_max(g), NULL, grid_min(g), NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL FROM rd) r
     JOIN stress_truth s USING (site);
@@ -131,7 +115,7 @@ CREATE TEMP VIEW stress_result AS
 
 \echo '== Recovered stress per site and method vs the invented truth (degrees; cones are 95 % half-angles)'
 \echo '   field_faults: Michael inversion, 500 bootstrap resamples; field_faults_unflagged: the same without'
-\echo '   faults misfitting > 30 deg; focal_joint: Vavrycuk joint inversion, SQL bootstrap of 500 resamples;'
+\echo '   faults misfitting > 30 deg; focal_joint: Vavrycuk joint inversion, 500 bootstrap resamples;'
 \echo '   right_dihedra_*: grid_max / grid_min of a 5-degree right-dihedra grid'
 SELECT site, method, n, pg_temp.tp(sigma1) AS sigma1, pg_temp.r1(cone1) AS cone1,
        pg_temp.tp(sigma3) AS sigma3, pg_temp.r1(cone3) AS cone3,
@@ -158,4 +142,4 @@ SELECT site, count(*) AS faults, count(*) FILTER (WHERE planted IS NOT NULL) AS 
 
 \echo '== Friction coefficient chosen by the joint focal inversion (searched over 0.2..1.0) per site'
 SELECT site, friction(t) AS friction, round(mean_misfit(t)::numeric, 1) AS mean_misfit
-  FROM (SELECT site, focal_stress_inversion(mechanism) AS t FROM focal_event GROUP BY site) f ORDER BY site;
+  FROM focal_inv f ORDER BY site;

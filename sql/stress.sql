@@ -71,6 +71,15 @@ SELECT data_count(s), angle(sigma1(s), '030/20') < 10 AS s1_near, angle(sigma3(s
 SELECT angle(sigma1(s), '030/20') < 10 AS s1_near, friction(s) BETWEEN 0.2 AND 1.0 AS searched_friction_in_range,
        s::text::stress_tensor::text = s::text AS text_round_trip
   FROM (SELECT focal_stress_inversion(fs) s FROM stress_slips) a;
+-- focal inversion with bootstrap confidence: same best tensor as without, cones and
+-- a Phi interval, reproducible for a seed, friction searched when NULL
+SELECT sigma1_confidence(b) BETWEEN 0 AND 90 AS cone1_ok, sigma3_confidence(b) BETWEEN 0 AND 90 AS cone3_ok,
+       (shape_ratio_interval(b))[1] <= (shape_ratio_interval(b))[2] AS interval_ok,
+       stress_components(b) = stress_components(p) AS same_best_tensor, friction(b) = friction(p) AS same_friction,
+       b::text = r::text AS reproducible
+  FROM (SELECT focal_stress_inversion(fs, NULL, 30, 5) b, focal_stress_inversion(fs, NULL, 30, 5) r,
+               focal_stress_inversion(fs) p FROM stress_slips WHERE g <= 120) x;
+SELECT friction(focal_stress_inversion(fs, 0.6, 20, 1)) AS fixed_friction FROM stress_slips WHERE g <= 120;
 -- the friction a joint inversion used is reported; other tensors have none
 SELECT friction(focal_stress_inversion(fs, 0.6)) AS given_friction, friction(stress_inversion(fs)) IS NULL AS linear_has_none
   FROM stress_slips;
@@ -103,6 +112,8 @@ SELECT q, pg_temp.err(q) FROM (VALUES
   ('SELECT stress_inversion(fs, 0, 1) FROM stress_slips'),
   ('SELECT stress_inversion(fs, CASE WHEN g < 5 THEN 5 ELSE 10 END, 1) FROM stress_slips'),
   ('SELECT focal_stress_inversion(fs, 9) FROM stress_slips'),
+  ('SELECT focal_stress_inversion(fs, 0.6, 0, 1) FROM stress_slips'),
+  ('SELECT focal_stress_inversion(fs, 0.6, NULL, 1) FROM stress_slips'),
   ('SELECT ''{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 5, "friction": 9}''::stress_tensor'),
   ('SELECT ''{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 5, "friction": 0.5, "friction": 0.5}''::stress_tensor')) t(q);
 -- a hand-typed tensor that passes validation

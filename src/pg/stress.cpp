@@ -510,15 +510,16 @@ namespace {
 constexpr uint32 kKeepMagic = 0x53534b31;  // "SSK1"
 constexpr int32 kKeepBootstrap = 1;
 constexpr int32 kKeepFocal = 2;
+constexpr int32 kKeepFocalBootstrap = 3;  // focal joint inversion with bootstrap
 constexpr int64 kKeepInitialCap = 64;
 // Default friction search of focal_stress_inversion(fault_slip): striae's choice,
 // covering the usual range of fault friction (common practice, no source).
 constexpr double kFocalMuMin = 0.2, kFocalMuMax = 1.0, kFocalMuStep = 0.1;
 
 struct KeepAgg {
-  int32 kind;       // kKeepBootstrap or kKeepFocal
-  int32 resamples;  // bootstrap
-  int64 seed;       // bootstrap
+  int32 kind;       // kKeepBootstrap, kKeepFocal or kKeepFocalBootstrap
+  int32 resamples;  // bootstraps
+  int64 seed;       // bootstraps
   double friction;  // focal: fixed value, or 0 = default search
   int64 count;
   int64 cap;
@@ -576,18 +577,17 @@ void keep_same(const KeepAgg *a, int32 resamples, int64 seed, double friction, c
 
 void keep_validate(const KeepAgg *a) {
   guarded([&] {
-    if (a->kind != kKeepBootstrap && a->kind != kKeepFocal)
+    if (a->kind != kKeepBootstrap && a->kind != kKeepFocal && a->kind != kKeepFocalBootstrap)
       throw Error(ErrorKind::BadState, "invalid stress inversion state: unknown kind");
     if (a->count < 0 || a->count > a->cap || a->count > static_cast<int64>(kMaxBootstrapData))
       throw Error(ErrorKind::BadState, "invalid stress inversion state: bad count");
-    if (a->kind == kKeepBootstrap) {
+    if (a->kind == kKeepBootstrap || a->kind == kKeepFocalBootstrap) {
       BootstrapOptions o;
       o.resamples = a->resamples;
       o.seed = static_cast<uint64_t>(a->seed);
       check_bootstrap_options(o);
-    } else if (a->friction != 0) {
-      check_friction(a->friction);
     }
+    if (a->kind != kKeepBootstrap && a->friction != 0) check_friction(a->friction);
     for (int64 i = 0; i < a->count; ++i) check_slip_datum(a->data[i].n, a->data[i].u);
   });
 }
@@ -636,6 +636,33 @@ Datum focal_accum(FunctionCallInfo fcinfo, bool fixed) {
 }  // namespace
 
 STRIAE_FUNCTION(focal_stress_inversion_accum) { return focal_accum(fcinfo, false); }
+
+// focal_stress_inversion(fault_slip, friction, resamples, seed): friction NULL
+// means the default search; resamples and seed must be given.
+STRIAE_FUNCTION(focal_bootstrap_accum) {
+  MemoryContext ctx = agg_context(fcinfo, "focal_bootstrap_accum");
+  KeepAgg *a = keep_state(fcinfo, 0);
+  if (PG_ARGISNULL(3) || PG_ARGISNULL(4))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED),
+                    errmsg("focal_stress_inversion resamples and seed must not be NULL")));
+  const double mu = PG_ARGISNULL(2) ? 0.0 : PG_GETARG_FLOAT8(2);
+  const int32 resamples = PG_GETARG_INT32(3);
+  const int64 seed = PG_GETARG_INT64(4);
+  if (a == nullptr) {
+    guarded([&] {
+      if (mu != 0.0) check_friction(mu);
+      BootstrapOptions o;
+      o.resamples = resamples;
+      o.seed = static_cast<uint64_t>(seed);
+      check_bootstrap_options(o);
+    });
+    a = keep_new(ctx, kKeepFocalBootstrap, resamples, seed, mu, kKeepInitialCap);
+  } else {
+    keep_same(a, resamples, seed, mu, "focal_stress_inversion");
+  }
+  keep_append(a, fcinfo, 1);
+  PG_RETURN_POINTER(a);
+}
 STRIAE_FUNCTION(focal_stress_inversion_friction_accum) { return focal_accum(fcinfo, true); }
 
 STRIAE_FUNCTION(stress_keep_combine) {
@@ -738,6 +765,12 @@ STRIAE_FUNCTION(focal_stress_inversion_final) {
       f.mu_min = kFocalMuMin;
       f.mu_max = kFocalMuMax;
       f.step = kFocalMuStep;
+    }
+    if (a->kind == kKeepFocalBootstrap) {
+      BootstrapOptions o;
+      o.resamples = a->resamples;
+      o.seed = static_cast<uint64_t>(a->seed);
+      return focal_bootstrap(a->data, static_cast<size_t>(a->count), f, o, picked, r);
     }
     return invert_focal(a->data, static_cast<size_t>(a->count), f, picked, r);
   });

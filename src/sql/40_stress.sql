@@ -150,6 +150,9 @@ CREATE FUNCTION focal_stress_inversion_accum(internal, fault_slip) RETURNS inter
   AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE PARALLEL SAFE;
 CREATE FUNCTION focal_stress_inversion_friction_accum(internal, fault_slip, float8) RETURNS internal
   AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE PARALLEL SAFE;
+CREATE FUNCTION focal_bootstrap_accum(internal, fault_slip, float8, integer, bigint) RETURNS internal
+  AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE PARALLEL SAFE;
+COMMENT ON FUNCTION focal_bootstrap_accum(internal, fault_slip, float8, integer, bigint) IS 'focal_stress_inversion(fault_slip, float8, integer, bigint) transition';
 CREATE FUNCTION stress_keep_combine(internal, internal) RETURNS internal
   AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE PARALLEL SAFE;
 CREATE FUNCTION stress_keep_serialize(internal) RETURNS bytea
@@ -191,3 +194,10 @@ CREATE AGGREGATE focal_stress_inversion(fault_slip, friction float8) (
   DESERIALFUNC = stress_keep_deserialize, PARALLEL = SAFE);
 COMMENT ON AGGREGATE focal_stress_inversion(fault_slip, float8) IS
   'joint stress inversion of focal mechanisms (Vavrycuk 2014) at a fixed friction (0.001..5); see focal_stress_inversion(fault_slip). Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
+CREATE AGGREGATE focal_stress_inversion(fault_slip, friction float8, resamples integer, seed bigint) (
+  SFUNC = focal_bootstrap_accum, STYPE = internal, FINALFUNC = focal_stress_inversion_final,
+  FINALFUNC_MODIFY = READ_WRITE,
+  COMBINEFUNC = stress_keep_combine, SERIALFUNC = stress_keep_serialize,
+  DESERIALFUNC = stress_keep_deserialize, PARALLEL = SAFE);
+COMMENT ON AGGREGATE focal_stress_inversion(fault_slip, float8, integer, bigint) IS
+  'joint stress inversion of focal mechanisms (Vavrycuk 2014) with bootstrap confidence (Michael 1987): friction fixed, or searched over 0.2..1.0 when NULL; each resample reruns the plane picking at the chosen friction; 95 % cones on the axes and a shape-ratio interval; deterministic for a given seed; keeps the group''s data (at most 1,000,000). Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
