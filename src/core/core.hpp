@@ -38,6 +38,11 @@ struct Error : std::runtime_error {
 constexpr double kPi = 3.14159265358979323846;
 constexpr double kDeg = kPi / 180.0;  // degrees -> radians
 
+// Per-row code that must be inlined into the transition functions: measured
+// in the server, a row's cost there is its latency, and calls (with vectors
+// passed through memory) add to it.
+#define STRIAE_HOT inline __attribute__((always_inline))
+
 inline double rad(double deg) { return deg * kDeg; }
 inline double deg(double r) { return r / kDeg; }
 

@@ -53,14 +53,25 @@ Mat3 ptb_frame(const FaultSlip &f) {
 }
 
 std::array<double, 6> moment_tensor_ned(const FaultSlip &f) {
-  Vec3 n, u;
-  fault_vectors(f, n, u);
-  auto c = [&](int i, int j) {
-    double v = n[i] * u[j] + u[i] * n[j];
-    // Clean rounding residue of exact zeros (e.g. sin(180 deg)); 1e-15 of unit moment.
-    return std::fabs(v) < 1e-15 ? 0.0 : v;
-  };
-  return {c(0, 0), c(1, 1), c(2, 2), c(0, 1), c(0, 2), c(1, 2)};
+  // M = n u^T + u n^T written out in strike, dip and rake (Aki & Richards
+  // 1980, Box 4.4, unit scalar moment, x north, y east, z down). The closed
+  // form uses the double angles directly, so textbook mechanisms give exact
+  // components (the 45-degree thrust: Mee = -1, Mdd = 1, not 1 +- 2e-16).
+  double sf, cf, s2f, c2f, sd, cd, s2d, c2d, sl, cl;
+  sincosd(f.strike, sf, cf);
+  sincosd(2 * f.strike, s2f, c2f);
+  sincosd(f.dip, sd, cd);
+  sincosd(2 * f.dip, s2d, c2d);
+  sincosd(f.rake, sl, cl);
+  // Clean rounding residue of exact zeros; 1e-15 of unit moment.
+  auto c = [](double v) { return std::fabs(v) < 1e-15 ? 0.0 : v; };
+  const double nn = -(sd * cl * s2f + s2d * sl * sf * sf);
+  const double ne = sd * cl * c2f + 0.5 * s2d * sl * s2f;
+  const double nd = -(cd * cl * cf + c2d * sl * sf);
+  const double ee = sd * cl * s2f - s2d * sl * cf * cf;
+  const double ed = -(cd * cl * sf - c2d * sl * cf);
+  const double dd = s2d * sl;
+  return {c(nn), c(ee), c(dd), c(ne), c(nd), c(ed)};
 }
 
 std::array<double, 6> moment_tensor_use(const FaultSlip &f) {

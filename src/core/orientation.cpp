@@ -36,39 +36,45 @@ inline double unneg(double v) { return v == 0.0 ? 0.0 : v; }
 
 }  // namespace
 
-// sin and cos of t radians for |t| <= pi/4: Taylor polynomials through t^17
-// and t^16 (the first omitted terms are below 1e-19), evaluated by Horner.
-// Within 2 ulp of the correctly rounded values (measured in the unit tests
-// against the C library), and several times faster than a general sincos,
-// which matters because every aggregate row converts degrees to a vector.
-inline void sincos_octant(double t, double &s, double &c) {
-  const double z = t * t;
-  s = t * (1.0 + z * (-1.0 / 6 + z * (1.0 / 120 + z * (-1.0 / 5040 + z * (1.0 / 362880 +
-           z * (-1.0 / 39916800 + z * (1.0 / 6227020800.0 + z * (-1.0 / 1307674368000.0 +
-           z * (1.0 / 355687428096000.0)))))))));
-  c = 1.0 + z * (-0.5 + z * (1.0 / 24 + z * (-1.0 / 720 + z * (1.0 / 40320 +
-           z * (-1.0 / 3628800 + z * (1.0 / 479001600 + z * (-1.0 / 87178291200.0 +
-           z * (1.0 / 20922789888000.0))))))));
-}
+namespace detail {
 
-// Sine and cosine of x degrees at once, exact at multiples of 90 degrees so
-// axis-aligned data give exact 0 and 1. The angle is reduced in degrees to
-// r in [-45, 45] around the nearest multiple of 90; that subtraction is exact
-// (Sterbenz lemma), so only r * pi/180 rounds before the polynomials.
-void sincosd(double x, double &s, double &c) {
-  double a = (x >= -360.0 && x <= 360.0) ? x : std::fmod(x, 360.0);
-  if (a < 0) a += 360.0;
-  const int q = static_cast<int>(a * (1.0 / 90.0) + 0.5);  // nearest, 0..4 (a >= 0)
-  const double r = a - 90.0 * q;
-  double sr, cr;
-  sincos_octant(r * kDeg, sr, cr);
-  // Quadrant q: (sin, cos) = (sr, cr), (cr, -sr), (-sr, -cr), (-cr, sr);
-  // selects and signs without branches (q is data-dependent, so branches mispredict).
-  const bool odd = q & 1;
-  const double ss = (q & 2) ? -1.0 : 1.0, cs = ((q + 1) & 2) ? -1.0 : 1.0;
-  s = ss * (odd ? cr : sr) + 0.0;  // + 0.0: no negative zeros
-  c = cs * (odd ? sr : cr) + 0.0;
-}
+namespace {
+
+// sin and cos of every whole degree 0..360. Degrees 0..90 come from the C
+// library in long double (64-bit mantissa), rounded once to double, so they are
+// the correctly rounded values (sin 30 = 0.5 exactly); the other quadrants are
+// exact sign-and-swap copies, so identities such as sin(180 - x) = sin x and
+// cos x = sin(90 - x) hold bit for bit at whole degrees.
+struct DegreeTable {
+  double sc[361][2];
+  DegreeTable() {
+    const long double pi = 3.141592653589793238462643383279502884L;
+    double s[91];
+    for (int j = 0; j <= 90; ++j) s[j] = static_cast<double>(sinl(j * pi / 180));
+    s[0] = 0.0;
+    s[30] = 0.5;
+    s[90] = 1.0;
+    auto set = [this](int k, double a, double b) {
+      sc[k][0] = a + 0.0;  // + 0.0: no negative zeros
+      sc[k][1] = b + 0.0;
+    };
+    for (int j = 0; j <= 90; ++j) {
+      const double sj = s[j], cj = s[90 - j];
+      set(j, sj, cj);
+      set(180 - j, sj, -cj);
+      set(180 + j, -sj, -cj);
+      set(360 - j, -sj, cj);
+    }
+  }
+};
+
+const DegreeTable kDegreeTable;
+
+}  // namespace
+
+const double (*const kDegreeTrig)[2] = kDegreeTable.sc;
+
+}  // namespace detail
 
 double sind(double x) {
   double s, c;
@@ -173,13 +179,6 @@ bool is_canonical(const FaultSlip &f) {
          c.rake == f.rake;
 }
 
-Vec3 line_vector(const Line &l) {
-  double st, ct, sp, cp;
-  sincosd(l.trend, st, ct);
-  sincosd(l.plunge, sp, cp);
-  return Vec3(cp * ct, cp * st, sp);
-}
-
 Line vector_line(const Vec3 &v0) {
   const double len = v0.norm();
   if (!(len > 0) || !std::isfinite(len))
@@ -207,13 +206,6 @@ Vec3 dip_vector(double strike_deg, double dip_deg) {
   return Vec3(-cd * sf, cd * cf, sd);
 }
 
-Vec3 plane_normal(const Plane &p) {
-  double sf, cf, sd, cd;
-  sincosd(p.strike, sf, cf);
-  sincosd(p.dip, sd, cd);
-  return Vec3(-sd * sf, sd * cf, -cd);
-}
-
 Plane normal_plane(const Vec3 &v) {
   // Derived value: round again after the +90, so results print like vector_line's.
   const Line l = vector_line(v);
@@ -223,24 +215,11 @@ Plane normal_plane(const Vec3 &v) {
 
 Line pole(const Plane &p) { return make_line(norm360(p.strike - 90.0), 90.0 - p.dip); }
 
-Vec3 pole_vector(const Plane &p) { return -plane_normal(p); }
-
 Plane plane_from_pole(const Line &l) {
   return make_plane(norm360(l.trend + 90.0), 90.0 - l.plunge);
 }
 
 double dip_direction(const Plane &p) { return norm360(p.strike + 90.0); }
-
-void fault_vectors(const FaultSlip &f, Vec3 &n, Vec3 &u) {
-  // One sincos per angle (this runs for every row of the stress aggregates).
-  double sf, cf, sd, cd, sr, cr;
-  sincosd(f.strike, sf, cf);
-  sincosd(f.dip, sd, cd);
-  sincosd(f.rake, sr, cr);
-  n = Vec3(-sd * sf, sd * cf, -cd);
-  // u = cos r s - sin r dd, s = (cf, sf, 0), dd = (-cd sf, cd cf, sd)
-  u = Vec3(cr * cf + sr * cd * sf, cr * sf - sr * cd * cf, -sr * sd);
-}
 
 FaultSlip fault_from_vectors(const Vec3 &n0, const Vec3 &u0) {
   const double nl = n0.norm();

@@ -80,18 +80,25 @@ TEST(Axes, CanonicalCases) {
 
 TEST(MomentTensor, ThrustAndUse) {
   // M = n u^T + u n^T for the thrust 0/45/90: Mee = -1, Mdd = +1 (derived, A&R Box 4.4).
+  // The closed form gives these exactly.
   auto m = moment_tensor_ned(FaultSlip{0, 45, 90});
-  EXPECT_NEAR(m[0], 0, 1e-15);
-  EXPECT_NEAR(m[1], -1, 1e-15);
-  EXPECT_NEAR(m[2], 1, 1e-15);
+  EXPECT_EQ(m[0], 0);
+  EXPECT_EQ(m[1], -1);
+  EXPECT_EQ(m[2], 1);
   auto u = moment_tensor_use(FaultSlip{0, 45, 90});
-  EXPECT_NEAR(u[0], 1, 1e-15);   // Mrr = Mdd
-  EXPECT_NEAR(u[2], -1, 1e-15);  // Mpp = Mee
+  EXPECT_EQ(u[0], 1);   // Mrr = Mdd
+  EXPECT_EQ(u[2], -1);  // Mpp = Mee
   // Trace zero, unit Frobenius norm / sqrt2 on random mechanisms.
   Rng r(3);
   for (int i = 0; i < 500; ++i) {
     const FaultSlip f = make_fault_slip(360 * r.uniform(), 90 * r.uniform(), 360 * r.uniform() - 180);
     auto a = moment_tensor_ned(f);
+    // The closed form is M = n u^T + u n^T of the fault's own unit vectors.
+    Vec3 n, sl;
+    fault_vectors(f, n, sl);
+    const int ij[6][2] = {{0, 0}, {1, 1}, {2, 2}, {0, 1}, {0, 2}, {1, 2}};
+    for (int k = 0; k < 6; ++k)
+      EXPECT_NEAR(a[k], n[ij[k][0]] * sl[ij[k][1]] + sl[ij[k][0]] * n[ij[k][1]], 2e-15) << k;
     EXPECT_NEAR(a[0] + a[1] + a[2], 0, 1e-14);
     const double fro = a[0] * a[0] + a[1] * a[1] + a[2] * a[2] + 2 * (a[3] * a[3] + a[4] * a[4] + a[5] * a[5]);
     EXPECT_NEAR(fro, 2, 1e-13);
