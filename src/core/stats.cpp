@@ -13,8 +13,6 @@ namespace {
 // Helpers
 // ---------------------------------------------------------------------------
 
-// Largest row count a state may hold: counts must convert to double exactly.
-constexpr int64_t kMaxCount = int64_t(1) << 53;
 
 // Add x to a compensated sum (Knuth's TwoSum: err is the exact rounding error).
 inline void comp_add(CompSum &s, double x) {
@@ -39,29 +37,6 @@ inline void fold_tensor_block(TensorState &s) {
   }
 }
 
-// Move the aligned block of a Fisher state into its compensated sums.
-inline void fold_aligned_block(FisherState &s) {
-  for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c) {
-      comp_add(s.aligned[k][c], s.block[c][k]);
-      s.block[c][k] = 0.0;
-    }
-}
-
-// Count one row and add its outer product to the block (no folding).
-inline void tensor_add_block(TensorState &s, const Vec3 &x) {
-  if (s.n >= kMaxCount)
-    throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
-  ++s.n;
-  ++s.pending;
-  s.block[kXX] += x(0) * x(0);
-  s.block[kYY] += x(1) * x(1);
-  s.block[kZZ] += x(2) * x(2);
-  s.block[kXY] += x(0) * x(1);
-  s.block[kXZ] += x(0) * x(2);
-  s.block[kYZ] += x(1) * x(2);
-}
-
 // Throw the BadState error for a malformed state, naming what is wrong.
 [[noreturn]] void bad_state(const char *which, const std::string &what) {
   throw Error(ErrorKind::BadState, std::string("malformed ") + which + " aggregate state",
@@ -73,17 +48,6 @@ std::string num(double v) {
   char buf[40];
   std::snprintf(buf, sizeof buf, "%.17g", v);
   return buf;
-}
-
-// Unit vector of a datum; rejects zero and non-finite input (DataError).
-// Line vectors from the SQL types are unit to rounding already: keep them as
-// they are (saves a square root and a division per row).
-Vec3 unit_datum(const Vec3 &x) {
-  if (std::fabs(x.squaredNorm() - 1.0) <= 4e-16) return x;
-  const double len = x.norm();
-  if (!std::isfinite(len) || !(len > 0))
-    throw Error(ErrorKind::DataError, "cannot add a zero or non-finite vector to an orientation statistic");
-  return x / len;
 }
 
 // Checks shared by every compensated sum: both parts finite.
@@ -99,7 +63,7 @@ inline double sum_tol(int64_t n) { return 1e-9 * (static_cast<double>(n) + 1.0);
 // The tensor checks, reporting under the name of the enclosing state.
 void validate_tensor_as(const TensorState &s0, const char *which) {
   if (s0.n < 0) bad_state(which, "row count " + std::to_string(s0.n) + " is negative");
-  if (s0.n > kMaxCount) bad_state(which, "row count " + std::to_string(s0.n) + " exceeds 2^53");
+  if (s0.n > detail::kMaxCount) bad_state(which, "row count " + std::to_string(s0.n) + " exceeds 2^53");
   if (s0.pending < 0 || s0.pending >= kBlockRows || s0.pending > s0.n)
     bad_state(which, "pending row count " + std::to_string(s0.pending) + " is out of range");
   for (int i = 0; i < 6; ++i)
@@ -134,7 +98,7 @@ void validate_tensor_as(const TensorState &s0, const char *which) {
 
 // Merge the tensor part of b into a (count overflow is a data error: too many rows).
 void combine_tensor(TensorState &a, const TensorState &b) {
-  if (a.n > kMaxCount - b.n)
+  if (a.n > detail::kMaxCount - b.n)
     throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
   a.n += b.n;
   for (int i = 0; i < 6; ++i) {
@@ -162,14 +126,93 @@ const double kRefAxes[kFisherRefAxes][3] = {
     {kR3, kR3, kR3},  {kR3, kR3, -kR3},  {kR3, -kR3, kR3}, {kR3, -kR3, -kR3},    // body diagonals
 };
 
-// The same axes component-major (row c holds component c of every axis).
-const double kRefAxesT[3][kFisherRefAxes] = {
-    {1, 0, 0, kR2, kR2, kR2, kR2, 0, 0, kR3, kR3, kR3, kR3},
-    {0, 1, 0, kR2, -kR2, 0, 0, kR2, kR2, kR3, kR3, -kR3, -kR3},
-    {0, 0, 1, 0, 0, kR2, -kR2, kR2, -kR2, kR3, -kR3, kR3, -kR3},
+// The signs of every cell against every reference axis, from a point well
+// inside the cell; padded to 16 axes (zeros) so the fold loop vectorises.
+struct CellSigns {
+  double sg[kFisherCells][16];
+  CellSigns() {
+    for (int quadrant = 0; quadrant < 4; ++quadrant)  // D > 0: N and E signs only
+      for (int bits = 0; bits < 8; ++bits)
+        for (int cross = 0; cross < 2; ++cross) {
+          const int c = quadrant * 16 + bits * 2 + cross, o = detail::kFisherOrderOfBits[bits];
+          for (int k = 0; k < 16; ++k) sg[c][k] = k < kFisherRefAxes ? 1.0 : 0.0;
+          if (o < 0) continue;  // impossible comparison pattern: never reached
+          // Magnitudes largest first: 1 > 0.3 + 0.2, or 1 < 0.8 + 0.6.
+          const double mag[3] = {1.0, cross ? 0.8 : 0.3, cross ? 0.6 : 0.2};
+          Vec3 p;
+          for (int r = 0; r < 3; ++r) {
+            const int comp = detail::kFisherOrders[o][r];
+            p(comp) = (quadrant >> comp) & 1 ? -mag[r] : mag[r];
+          }
+          for (int k = 0; k < kFisherRefAxes; ++k) {
+            const double d = p(0) * kRefAxes[k][0] + p(1) * kRefAxes[k][1] + p(2) * kRefAxes[k][2];
+            sg[c][k] = d < 0 ? -1.0 : 1.0;
+          }
+        }
+  }
 };
+const CellSigns kCellSigns;
 
 }  // namespace
+
+namespace detail {
+
+[[noreturn]] void too_many_rows() {
+  throw Error(ErrorKind::DataError, "too many rows for an orientation statistic (limit 2^53)");
+}
+
+Vec3 unit_datum_slow(const Vec3 &x) {
+  const double len = x.norm();
+  if (!std::isfinite(len) || !(len > 0))
+    throw Error(ErrorKind::DataError, "cannot add a zero or non-finite vector to an orientation statistic");
+  return x / len;
+}
+
+void tensor_fold(TensorState &s) {
+  fold_tensor_block(s);
+  s.pending = 0;
+}
+
+// Move a Fisher state's cell sums into its aligned compensated sums: A_k +=
+// sum over cells of sign(cell, k) * cell sum. Empty cells are skipped, so small
+// groups fold cheaply.
+void fisher_fold_cells(FisherState &s) {
+  double acc[3][16] = {};
+  bool any = false;
+  for (int c = 0; c < kFisherCells; ++c) {
+    const double x = s.cells[c][0], y = s.cells[c][1], z = s.cells[c][2];
+    if (x == 0.0 && y == 0.0 && z == 0.0) continue;
+    any = true;
+    const double *sg = kCellSigns.sg[c];
+    for (int k = 0; k < 16; ++k) {
+      acc[0][k] += sg[k] * x;
+      acc[1][k] += sg[k] * y;
+      acc[2][k] += sg[k] * z;
+    }
+    s.cells[c][0] = s.cells[c][1] = s.cells[c][2] = 0.0;
+  }
+  if (!any) return;
+  for (int k = 0; k < kFisherRefAxes; ++k)
+    for (int c = 0; c < 3; ++c) comp_add(s.aligned[k][c], acc[c][k]);
+}
+
+void fisher_fold(FisherState &s) {
+  fold_tensor_block(s.tensor);
+  fisher_fold_cells(s);
+  s.tensor.pending = 0;
+}
+
+}  // namespace detail
+
+Vec3 fisher_canonical(const Vec3 &x) { return detail::canonical_of(x); }
+
+int fisher_cell(const Vec3 &canonical) { return detail::cell_of(canonical); }
+
+double fisher_cell_sign(int cell, int k) {
+  if (cell < 0 || cell >= kFisherCells || k < 0 || k >= kFisherRefAxes)
+    throw Error(ErrorKind::InvalidParameter, "Fisher cell index must be 0 to 63 and axis index 0 to 12");
+  return kCellSigns.sg[cell][k];
+}
 
 // ---------------------------------------------------------------------------
 // Eigen-decomposition
@@ -213,16 +256,6 @@ void tensor_init(TensorState &s) {
   for (int i = 0; i < 6; ++i) {
     s.t[i] = CompSum{0.0, 0.0};
     s.block[i] = 0.0;
-  }
-}
-
-// One datum adds its outer product; no division by n until the result, so the
-// sums stay additive across combine.
-void tensor_add(TensorState &s, const Vec3 &x0) {
-  tensor_add_block(s, unit_datum(x0));
-  if (s.pending == kBlockRows) {
-    fold_tensor_block(s);
-    s.pending = 0;
   }
 }
 
@@ -304,57 +337,42 @@ Vec3 fisher_reference_axis(int k) {
   return Vec3(kRefAxes[k][0], kRefAxes[k][1], kRefAxes[k][2]);
 }
 
-// Empty Fisher state: empty tensor and 13 zero aligned resultants.
+// Empty Fisher state: empty tensor, 13 zero aligned resultants, empty cells.
 void fisher_init(FisherState &s) {
   tensor_init(s.tensor);
   for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c) {
-      s.aligned[k][c] = CompSum{0.0, 0.0};
-      s.block[c][k] = 0.0;
-    }
-}
-
-// One datum updates the tensor and every aligned resultant (13 dot products).
-void fisher_add(FisherState &s, const Vec3 &x0) {
-  const Vec3 x = unit_datum(x0);
-  tensor_add_block(s.tensor, x);
-  const double x0c = x(0), x1c = x(1), x2c = x(2);
-  // Component-major arrays, mapped as Eigen arrays so the 13 updates run in
-  // SIMD packets (13 doubles have no alignment requirement; Map is unaligned).
-  using Arr = Eigen::Array<double, kFisherRefAxes, 1>;
-  const Eigen::Map<const Arr> rx(kRefAxesT[0]), ry(kRefAxesT[1]), rz(kRefAxesT[2]);
-  const Arr d = x0c * rx + x1c * ry + x2c * rz;
-  const Arr sg = (d < 0).select(Arr::Constant(-1.0), Arr::Constant(1.0));  // sign(0) = +1, fixed
-  Eigen::Map<Arr>(s.block[0]) += sg * x0c;
-  Eigen::Map<Arr>(s.block[1]) += sg * x1c;
-  Eigen::Map<Arr>(s.block[2]) += sg * x2c;
-  if (s.tensor.pending == kBlockRows) {
-    fold_tensor_block(s.tensor);
-    fold_aligned_block(s);
-    s.tensor.pending = 0;
-  }
+    for (int c = 0; c < 3; ++c) s.aligned[k][c] = CompSum{0.0, 0.0};
+  for (int c = 0; c < kFisherCells; ++c) s.cells[c][0] = s.cells[c][1] = s.cells[c][2] = 0.0;
 }
 
 // Combine adds everything: the alignment signs never depend on other rows.
-void fisher_combine(FisherState &a, const FisherState &b) {
+// b's pending rows join a's compensated sums (its cells are folded on a copy).
+void fisher_combine(FisherState &a, const FisherState &b0) {
+  FisherState b = b0;
+  detail::fisher_fold_cells(b);
   combine_tensor(a.tensor, b.tensor);
   for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c) {
-      comp_merge(a.aligned[k][c], b.aligned[k][c]);
-      comp_add(a.aligned[k][c], b.block[c][k]);
-    }
+    for (int c = 0; c < 3; ++c) comp_merge(a.aligned[k][c], b.aligned[k][c]);
 }
 
 // Tensor checks plus the bounds every aligned resultant must obey.
 void fisher_validate(const FisherState &s0) {
   static const char *which = "Fisher mean";
   validate_tensor_as(s0.tensor, which);
-  for (int k = 0; k < kFisherRefAxes; ++k)
-    for (int c = 0; c < 3; ++c)
-      if (!std::isfinite(s0.block[c][k])) bad_state(which, "an aligned block sum is not finite");
+  // Each pending row adds one unit vector to one cell: the cell sums' lengths
+  // add up to at most the pending row count, and are all zero without rows.
+  double cell_len = 0.0;
+  for (int c = 0; c < kFisherCells; ++c) {
+    const Vec3 v(s0.cells[c][0], s0.cells[c][1], s0.cells[c][2]);
+    if (!std::isfinite(v(0)) || !std::isfinite(v(1)) || !std::isfinite(v(2)))
+      bad_state(which, "a cell sum is not finite");
+    cell_len += v.norm();
+  }
+  if (cell_len > static_cast<double>(s0.tensor.pending) + sum_tol(s0.tensor.pending))
+    bad_state(which, "cell sums are longer than the pending rows allow");
   FisherState s = s0;  // check block and compensated sums together
   fold_tensor_block(s.tensor);
-  fold_aligned_block(s);
+  detail::fisher_fold_cells(s);
   for (int k = 0; k < kFisherRefAxes; ++k)
     for (int c = 0; c < 3; ++c) check_comp(s.aligned[k][c], which, "aligned resultant");
   if (s.tensor.n == 0) {
@@ -387,7 +405,7 @@ FisherResult fisher_result(const FisherState &s0) {
   fisher_validate(s0);
   FisherState s = s0;
   fold_tensor_block(s.tensor);
-  fold_aligned_block(s);
+  detail::fisher_fold_cells(s);
   FisherResult r{};
   r.n = s.tensor.n;
   r.reference_axis = -1;
@@ -418,7 +436,10 @@ FisherResult fisher_result(const FisherState &s0) {
   if (a.dot(e1) < 0) a = -a;  // agree with e1 (only the axis matters for the mean)
   const double n = static_cast<double>(r.n);
   double R = a.norm();
-  if (R > n) R = n;  // rounding can push R a few ulps over N
+  // The data's unit vectors are unit only to rounding (|v| = 1 +- 2e-16), so
+  // R within that of N means identical data: report R = N exactly (and never
+  // a few ulps over N).
+  if (R > n * (1.0 - 1e-15)) R = n;
   r.resultant = R;
   if (R > 0) {
     r.mean_valid = true;

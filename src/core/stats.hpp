@@ -110,8 +110,8 @@ constexpr double kEigenTie = 1e-12;
 
 // Start an empty tensor state.
 void tensor_init(TensorState &s);
-// Add one datum (any non-zero finite vector; normalised here).
-void tensor_add(TensorState &s, const Vec3 &x);
+// Add one datum (any non-zero finite vector; normalised here). Inline (below).
+inline void tensor_add(TensorState &s, const Vec3 &x);
 // Merge b into a.
 void tensor_combine(TensorState &a, const TensorState &b);
 // Throw Error(BadState) unless s could come from init/add/combine.
@@ -155,10 +155,36 @@ constexpr double kFisherWorstRefAngleDeg = 27.569276130480937;  // derived, see 
 // then body diagonals.
 Vec3 fisher_reference_axis(int k);
 
+// Per row, the 13 signs are not computed one by one: the 13 planes normal to
+// the reference axes cut the sphere into cells, and every datum inside one
+// cell has the same sign against every reference axis. A row, first given the
+// sign that puts it in the canonical half-sphere (D > 0; on the horizontal,
+// E > 0; then N > 0: axial data, so -x and x are the same datum, bit for bit),
+// is added to its cell's plain vector sum (a few comparisons pick the cell);
+// at the end of each block the cell sums, signed per axis, join the aligned
+// resultants. That is the same sum as signing each row (only data lying on a
+// plane, exactly perpendicular to a reference axis, may take the other sign,
+// and such an axis is never the one picked for data within the exactness
+// bound). The cell of a canonical x: the quadrant of its N and E signs (4),
+// the three comparisons |x|<|y|, |x|<|z|, |y|<|z| (8 bit patterns, 6 of them
+// possible: the orders of the absolute components; these two give the cells
+// of the coordinate and face-diagonal planes), and whether the largest
+// |component| exceeds the sum of the other two (the one body-diagonal plane
+// that crosses such a cell) (2): 64 slots, 48 of them cells, indexed without
+// a table lookup (the cell index is on every row's critical path).
+constexpr int kFisherCells = 64;
+
+// The canonical sign of a datum, its cell (0..63), and the sign (+1 or -1)
+// that every datum inside cell c has against reference axis k (+1 for the 16
+// impossible slots); exposed for the unit tests.
+Vec3 fisher_canonical(const Vec3 &x);
+int fisher_cell(const Vec3 &canonical);
+double fisher_cell_sign(int cell, int k);
+
 struct FisherState {
   TensorState tensor;
   CompSum aligned[kFisherRefAxes][3];  // A_k, components N, E, D
-  double block[3][kFisherRefAxes];     // the block's A_k, component-major (N row, E row, D row)
+  double cells[kFisherCells][3];       // the block's plain vector sum per cell (rows: tensor.pending)
 };
 
 static_assert(std::is_trivially_copyable<FisherState>::value, "state is memcpy'd");
@@ -199,12 +225,96 @@ constexpr double kFisherTiny = 1e-12;
 // Start an empty Fisher state.
 void fisher_init(FisherState &s);
 // Add one axial datum (any non-zero finite vector; normalised, sign ignored).
-void fisher_add(FisherState &s, const Vec3 &x);
+// Inline (below).
+inline void fisher_add(FisherState &s, const Vec3 &x);
 // Merge b into a.
 void fisher_combine(FisherState &a, const FisherState &b);
 // Throw Error(BadState) unless s could come from init/add/combine.
 void fisher_validate(const FisherState &s);
 // Finalise (validates first).
 FisherResult fisher_result(const FisherState &s);
+
+// ---------------------------------------------------------------------------
+// Per-row code, inline: the aggregates' transition functions run it for every
+// row, and measured in the server one function with everything inlined costs
+// far less than a chain of calls across files. Rare paths (errors, folding a
+// full block) stay out of line in stats.cpp.
+// ---------------------------------------------------------------------------
+
+namespace detail {
+
+// Largest row count a state may hold: counts must convert to double exactly.
+constexpr int64_t kMaxCount = int64_t(1) << 53;
+
+[[noreturn]] void too_many_rows();
+Vec3 unit_datum_slow(const Vec3 &x);  // normalise, or DataError for zero / non-finite
+void tensor_fold(TensorState &s);     // block into the compensated sums, pending = 0
+void fisher_fold(FisherState &s);     // tensor block and cell sums likewise
+
+// Unit vector of a datum. Line vectors from the SQL types are unit to rounding
+// already: kept as they are (no square root, no division).
+STRIAE_HOT Vec3 unit_datum(const Vec3 &x) {
+  if (std::fabs(x.squaredNorm() - 1.0) <= 4e-16) return x;
+  return unit_datum_slow(x);
+}
+
+// Count one row and add its outer product to the block (no folding).
+STRIAE_HOT void tensor_add_block(TensorState &s, const Vec3 &x) {
+  if (s.n >= kMaxCount) too_many_rows();
+  ++s.n;
+  ++s.pending;
+  s.block[kXX] += x(0) * x(0);
+  s.block[kYY] += x(1) * x(1);
+  s.block[kZZ] += x(2) * x(2);
+  s.block[kXY] += x(0) * x(1);
+  s.block[kXZ] += x(0) * x(2);
+  s.block[kYZ] += x(1) * x(2);
+}
+
+// The sign of an axial datum that puts it in the canonical half-sphere: D > 0,
+// or D = 0 and E > 0, or D = E = 0 and N > 0 (see the Fisher state above).
+STRIAE_HOT Vec3 canonical_of(const Vec3 &x) {
+  const bool flip = x(2) < 0 || (x(2) == 0 && (x(1) < 0 || (x(1) == 0 && x(0) < 0)));
+  return flip ? Vec3(-x) : x;
+}
+
+// Rank of the absolute components, from the three comparison bits
+// (|x|<|y|) | (|x|<|z|) << 1 | (|y|<|z|) << 2: index into kFisherOrders. Bit
+// patterns 2 and 5 are cyclic (impossible): -1.
+constexpr int kFisherOrderOfBits[8] = {0, 1, -1, 2, 3, -1, 4, 5};
+// Components from largest to smallest |value| for each order.
+constexpr int kFisherOrders[6][3] = {{0, 1, 2}, {1, 0, 2}, {1, 2, 0}, {0, 2, 1}, {2, 0, 1}, {2, 1, 0}};
+
+// Cell index of a canonical x (see the Fisher state above): quadrant * 16 +
+// comparison bits * 2 + crossing bit. Branch-free; rounding decides only for
+// data within ~1e-16 of a plane.
+STRIAE_HOT int cell_of(const Vec3 &x) {
+  const double ax = std::fabs(x(0)), ay = std::fabs(x(1)), az = std::fabs(x(2));
+  const int quadrant = int(x(0) < 0) | (int(x(1) < 0) << 1);
+  const int bits = int(ax < ay) | (int(ax < az) << 1) | (int(ay < az) << 2);
+  const double big = std::fmax(std::fmax(ax, ay), az);
+  const int cross = int(2.0 * big - (ax + ay + az) < 0);  // largest < sum of the other two
+  return quadrant * 16 + bits * 2 + cross;
+}
+
+}  // namespace detail
+
+// One datum adds its outer product; no division by n until the result, so the
+// sums stay additive across combine.
+STRIAE_HOT void tensor_add(TensorState &s, const Vec3 &x0) {
+  detail::tensor_add_block(s, detail::unit_datum(x0));
+  if (s.pending == kBlockRows) detail::tensor_fold(s);
+}
+
+// One datum updates the tensor and its cell's sum.
+STRIAE_HOT void fisher_add(FisherState &s, const Vec3 &x0) {
+  const Vec3 x = detail::canonical_of(detail::unit_datum(x0));
+  detail::tensor_add_block(s.tensor, x);
+  double *cell = s.cells[detail::cell_of(x)];
+  cell[0] += x(0);
+  cell[1] += x(1);
+  cell[2] += x(2);
+  if (s.tensor.pending == kBlockRows) detail::fisher_fold(s);
+}
 
 }  // namespace striae

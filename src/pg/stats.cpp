@@ -40,9 +40,12 @@ template <> struct StateInfo<TensorState> {
 
 template <class S>
 Datum accum(FunctionCallInfo fcinfo, bool is_plane, const char *fn) {
-  MemoryContext ctx = agg_context(fcinfo, fn);
   S *s = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<S *>(PG_GETARG_POINTER(0));
   if (s == nullptr) {
+    // The aggregate-context check runs when the state is created, as in
+    // PostgreSQL's own transition functions: a non-NULL internal state can
+    // only come from a call that passed it (SQL cannot make one).
+    MemoryContext ctx = agg_context(fcinfo, fn);
     s = static_cast<S *>(MemoryContextAlloc(ctx, sizeof(S)));
     StateInfo<S>::init(*s);
   }

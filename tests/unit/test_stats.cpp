@@ -69,19 +69,69 @@ TEST(StatsState, PlainStructsForPallocMemory) {
   // destructible, 8-byte alignment at most (static_asserts hold; sizes pinned
   // so a layout change is noticed by the SQL serialisation).
   EXPECT_EQ(sizeof(TensorState), 8u + 6 * 16 + 8 + 6 * 8);  // n, sums, pending, block
-  EXPECT_EQ(sizeof(FisherState), sizeof(TensorState) + 13 * 3 * 16 + 13 * 3 * 8);  // + aligned, block
+  EXPECT_EQ(sizeof(FisherState), sizeof(TensorState) + 13 * 3 * 16 + 64 * 3 * 8);  // + aligned, cells
   EXPECT_LE(alignof(FisherState), 8u);
-  // The component-major copy of the reference axes used by fisher_add matches the table.
+  // One datum, folded by a combine into an empty state, is A_k = sign(x . r_k) x
+  // for every reference axis (the per-row definition in stats.hpp).
   {
-    FisherState one;
+    FisherState one, acc;
     fisher_init(one);
+    fisher_init(acc);
     const Vec3 x = Vec3(0.3, -0.5, 0.8).normalized();
     fisher_add(one, x);
+    fisher_combine(acc, one);
     for (int k = 0; k < kFisherRefAxes; ++k) {
       const double sg = fisher_reference_axis(k).dot(x) < 0 ? -1.0 : 1.0;
-      for (int c = 0; c < 3; ++c) EXPECT_EQ(one.block[c][k], sg * x(c)) << k;
+      for (int c = 0; c < 3; ++c) EXPECT_EQ(comp_value(acc.aligned[k][c]), sg * x(c)) << k;
     }
   }
+}
+
+TEST(FisherCells, EveryDatumInACellHasTheCellsSigns) {
+  // The cell shortcut of fisher_add (stats.hpp) is exact when each datum's own
+  // sign against each reference axis (once given the canonical sign) is its
+  // cell's sign; only data within
+  // rounding of a plane (|x . r_k| ~ 1e-16) may differ. 2 million random unit
+  // vectors, plus points near every plane and on the planes' intersections.
+  Rng g(77);
+  std::vector<int> hits(kFisherCells, 0);
+  int64_t mismatched = 0, near_plane = 0;
+  auto check = [&](const Vec3 &x0) {
+    const Vec3 x = fisher_canonical(x0);
+    ASSERT_TRUE(x == x0 || x == -x0);
+    ASSERT_TRUE(x(2) > 0 || (x(2) == 0 && (x(1) > 0 || (x(1) == 0 && x(0) > 0))));
+    const int c = fisher_cell(x);
+    ASSERT_GE(c, 0);
+    ASSERT_LT(c, kFisherCells);
+    ++hits[c];
+    for (int k = 0; k < kFisherRefAxes; ++k) {
+      const double d = fisher_reference_axis(k).dot(x);
+      if (std::fabs(d) < 1e-14) {
+        ++near_plane;
+        continue;
+      }
+      if ((d < 0 ? -1.0 : 1.0) != fisher_cell_sign(c, k)) ++mismatched;
+    }
+  };
+  for (int i = 0; i < 2000000; ++i) check(g.unit());
+  for (int i = 0; i < 200000; ++i) {
+    // Near plane k: the datum minus most of its component along r_k.
+    const Vec3 r = fisher_reference_axis(i % kFisherRefAxes);
+    const Vec3 u = g.unit();
+    const Vec3 x = (u - (1.0 - 1e-9 * g.uniform()) * u.dot(r) * r).normalized();
+    check(x);
+  }
+  EXPECT_EQ(mismatched, 0);
+  EXPECT_GT(near_plane, 0);  // the boundary points were reached
+  // The 48 cells are all reached; the 16 slots of impossible comparison
+  // patterns (stats.hpp) never are.
+  for (int c = 0; c < kFisherCells; ++c) {
+    const bool possible = detail::kFisherOrderOfBits[(c % 16) / 2] >= 0;
+    if (possible) EXPECT_GT(hits[c], 0) << "cell " << c << " never reached";
+    else EXPECT_EQ(hits[c], 0) << "impossible slot " << c << " reached";
+  }
+  EXPECT_THROW(fisher_cell_sign(64, 0), Error);
+  EXPECT_THROW(fisher_cell_sign(0, 13), Error);
 }
 
 TEST(StatsState, MemcpyRoundTripMidStream) {
@@ -502,8 +552,11 @@ TEST(FisherValidate, RejectsMalformedStates) {
   for (int c = 0; c < 3; ++c) s.aligned[9][c].hi = -s.aligned[9][c].hi;
   expect_bad(s, "aligned resultant pointing away from its axis");
   s = part;  // rows still in the block
-  s.block[1][3] = NAN;
-  expect_bad(s, "NaN aligned block sum");
+  s.cells[37][1] = NAN;
+  expect_bad(s, "NaN cell sum");
+  s = part;
+  s.cells[5][0] += 25;
+  expect_bad(s, "cell sums longer than the pending rows");
   s = part;
   s.tensor.pending = kBlockRows;
   expect_bad(s, "pending rows out of range");
@@ -511,8 +564,9 @@ TEST(FisherValidate, RejectsMalformedStates) {
   s.tensor.pending = 21;
   expect_bad(s, "more pending rows than rows");
   s = part;
-  for (int c = 0; c < 3; ++c) s.block[c][9] = -s.block[c][9];
-  expect_bad(s, "aligned block pointing away from its axis");
+  for (auto &cell : s.cells)
+    for (double &v : cell) v = -v;
+  expect_bad(s, "cell sums pointing away from their axes");
   FisherState e;
   fisher_init(e);
   e.aligned[2][2].hi = 1;
