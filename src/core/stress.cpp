@@ -418,17 +418,31 @@ void check_slip_datum(const double n[3], const double u[3]) {
 // of each basis tensor is a_k = w_k - (n.w_k) n, with w_k = E_k n for
 // E1 = diag(1,0,-1), E2 = sym(1,2), E3 = sym(1,3), E4 = diag(0,1,-1), E5 = sym(2,3)
 // (s33 = -(s11 + s22)); out holds a_k.a_l (upper triangle, row-major, kTri
-// order) and then a_k.u. Straight-line code: this runs for every row.
+// order) and then a_k.u. With q_k = n.w_k, expanding the products gives
+//   a_k.a_l = w_k.w_l - q_k q_l (2 - n.n),   a_k.u = w_k.u - q_k (n.u),
+// and w_k.w_l, w_k.u are one or two products of components each (derived from
+// the E_k above; the unit test compares with the a_k built explicitly). About
+// 60 operations instead of 130: this runs for every row.
 void stress_contribution(const double n[3], const double u[3], double out[20]) {
-  const double n0 = n[0], n1 = n[1], n2 = n[2];
-  const double q[5] = {n0 * n0 - n2 * n2, 2 * n0 * n1, 2 * n0 * n2, n1 * n1 - n2 * n2, 2 * n1 * n2};
-  const double a0[5] = {n0 - q[0] * n0, n1 - q[1] * n0, n2 - q[2] * n0, -q[3] * n0, -q[4] * n0};
-  const double a1[5] = {-q[0] * n1, n0 - q[1] * n1, -q[2] * n1, n1 - q[3] * n1, n2 - q[4] * n1};
-  const double a2[5] = {-n2 - q[0] * n2, -q[1] * n2, n0 - q[2] * n2, -n2 - q[3] * n2, n1 - q[4] * n2};
+  const double n0 = n[0], n1 = n[1], n2 = n[2], u0 = u[0], u1 = u[1], u2 = u[2];
+  const double s0 = n0 * n0, s1 = n1 * n1, s2 = n2 * n2;
+  const double p01 = n0 * n1, p02 = n0 * n2, p12 = n1 * n2;
+  const double q[5] = {s0 - s2, 2 * p01, 2 * p02, s1 - s2, 2 * p12};
+  const double g = 2.0 - (s0 + s1 + s2);  // 1 for a unit normal
+  const double qg[5] = {q[0] * g, q[1] * g, q[2] * g, q[3] * g, q[4] * g};
+  // w_k.w_l, upper triangle in kTri order.
+  const double ww[15] = {s0 + s2, p01, 0.0, s2,  -p12,  //
+                         s0 + s1, p12, p01, p02,        //
+                         s0 + s2, -p02, p01,            //
+                         s1 + s2, 0.0,                  //
+                         s1 + s2};
   int i = 0;
   for (int k = 0; k < 5; ++k)
-    for (int l = k; l < 5; ++l) out[i++] = a0[k] * a0[l] + a1[k] * a1[l] + a2[k] * a2[l];
-  for (int k = 0; k < 5; ++k) out[15 + k] = a0[k] * u[0] + a1[k] * u[1] + a2[k] * u[2];
+    for (int l = k; l < 5; ++l, ++i) out[i] = ww[i] - q[k] * qg[l];
+  const double nu = n0 * u0 + n1 * u1 + n2 * u2;
+  const double wu[5] = {n0 * u0 - n2 * u2, n1 * u0 + n0 * u1, n2 * u0 + n0 * u2, n1 * u1 - n2 * u2,
+                        n2 * u1 + n1 * u2};
+  for (int k = 0; k < 5; ++k) out[15 + k] = wu[k] - q[k] * nu;
 }
 
 // Empty state: all zero.
@@ -438,6 +452,20 @@ void stress_init(StressAccum &s) { std::memset(&s, 0, sizeof s); }
 void stress_add(StressAccum &s, const Vec3 &n, const Vec3 &u) {
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   check_slip_datum(nv, uv);
+  double c[20];
+  stress_contribution(nv, uv, c);
+  for (int i = 0; i < 15; ++i) s.ata[i] += c[i];
+  for (int i = 0; i < 5; ++i) s.atu[i] += c[15 + i];
+  s.uu += uv[0] * uv[0] + uv[1] * uv[1] + uv[2] * uv[2];
+  s.count += 1;
+}
+
+void stress_add_fault(StressAccum &s, const FaultSlip &f) {
+  if (!std::isfinite(f.strike) || !std::isfinite(f.dip) || !std::isfinite(f.rake))
+    throw Error(ErrorKind::DataError, "fault-slip angles must be finite");
+  Vec3 n, u;
+  fault_vectors(f, n, u);
+  const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   double c[20];
   stress_contribution(nv, uv, c);
   for (int i = 0; i < 15; ++i) s.ata[i] += c[i];

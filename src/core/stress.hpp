@@ -253,6 +253,10 @@ void check_slip_datum(const double n[3], const double u[3]);
 void stress_init(StressAccum &s);
 // Add one datum (checked with check_slip_datum).
 void stress_add(StressAccum &s, const Vec3 &n, const Vec3 &u);
+// Add one fault-slip datum: its vectors come from fault_vectors(), unit and
+// orthogonal by construction, so the vector check is skipped (the angles must
+// be finite: DataError otherwise). The per-row path of stress_inversion.
+void stress_add_fault(StressAccum &s, const FaultSlip &f);
 // into += from; exact sums, so commutative, and associative up to rounding.
 void stress_combine(StressAccum &into, const StressAccum &from);
 // BadState unless count >= 0, all fields finite, the empty state all zero, the

@@ -283,19 +283,16 @@ StressAccum *stress_state(FunctionCallInfo fcinfo, int k) {
 }  // namespace
 
 STRIAE_FUNCTION(stress_inversion_accum) {
-  MemoryContext ctx = agg_context(fcinfo, "stress_inversion_accum");
   StressAccum *s = stress_state(fcinfo, 0);
   if (s == nullptr) {
+    // Checked when the state is created (see the statistics aggregates).
+    MemoryContext ctx = agg_context(fcinfo, "stress_inversion_accum");
     s = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
     stress_init(*s);
   }
   if (!PG_ARGISNULL(1)) {
     const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
-    guarded([&] {
-      Vec3 n, u;
-      fault_vectors(f, n, u);
-      stress_add(*s, n, u);
-    });
+    guarded([&] { stress_add_fault(*s, f); });
   }
   PG_RETURN_POINTER(s);
 }

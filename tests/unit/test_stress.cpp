@@ -848,3 +848,65 @@ TEST(StressText, ParsesEveryKeyAndRejectsBadInput) {
       "{\"components\": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], \"n\": 1, \"friction\": 9}");
   EXPECT_THROW(check_stress_tensor(w), Error);
 }
+
+TEST(StressAccum, ContributionMatchesExplicitShearTractions) {
+  // stress_contribution expands a_k.a_l and a_k.u algebraically; compare with
+  // the definition (Michael 1984): a_k = w_k - (n.w_k) n, w_k = E_k n, for the
+  // five basis tensors E1 = diag(1,0,-1), E2 = sym(1,2), E3 = sym(1,3),
+  // E4 = diag(0,1,-1), E5 = sym(2,3). The expansion is an identity for any n
+  // and u, so non-unit vectors are checked too.
+  Rng r(2024);
+  Mat3 E[5];
+  for (auto &e : E) e.setZero();
+  E[0](0, 0) = 1, E[0](2, 2) = -1;
+  E[1](0, 1) = E[1](1, 0) = 1;
+  E[2](0, 2) = E[2](2, 0) = 1;
+  E[3](1, 1) = 1, E[3](2, 2) = -1;
+  E[4](1, 2) = E[4](2, 1) = 1;
+  double worst = 0;
+  for (int t = 0; t < 2000; ++t) {
+    Vec3 n = random_unit(r), u = up(random_unit(r)).cross(n).normalized();
+    if (t % 2) {
+      n *= 0.5 + r.uniform();
+      u = random_unit(r) * (0.5 + r.uniform());
+    }
+    Vec3 a[5];
+    for (int k = 0; k < 5; ++k) {
+      const Vec3 w = E[k] * n;
+      a[k] = w - n.dot(w) * n;
+    }
+    const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
+    double c[20];
+    stress_contribution(nv, uv, c);
+    int i = 0;
+    for (int k = 0; k < 5; ++k)
+      for (int l = k; l < 5; ++l, ++i) worst = std::max(worst, std::fabs(c[i] - a[k].dot(a[l])));
+    for (int k = 0; k < 5; ++k) worst = std::max(worst, std::fabs(c[15 + k] - a[k].dot(u)));
+  }
+  EXPECT_LT(worst, 1e-13);
+}
+
+TEST(StressAccum, FaultPathEqualsVectorPath) {
+  // stress_add_fault (the SQL per-row path, no vector check) adds exactly what
+  // stress_add adds for the vectors of fault_vectors, which pass the check.
+  Rng r(7);
+  StressAccum a, b;
+  stress_init(a);
+  stress_init(b);
+  for (int i = 0; i < 5000; ++i) {
+    const FaultSlip f = make_fault_slip(360 * r.uniform(), 90 * r.uniform(), 360 * r.uniform() - 180);
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
+    EXPECT_NO_THROW(check_slip_datum(nv, uv));
+    stress_add(a, n, u);
+    stress_add_fault(b, f);
+  }
+  EXPECT_EQ(0, std::memcmp(&a, &b, sizeof a));
+  try {
+    stress_add_fault(b, FaultSlip{10, 20, NAN});
+    ADD_FAILURE() << "NaN rake accepted";
+  } catch (const Error &e) {
+    EXPECT_EQ(e.kind, ErrorKind::DataError);
+  }
+}
