@@ -25,8 +25,10 @@ EIGEN_CFLAGS = -isystem /usr/include/eigen3
 WARN         = -Wall -Wextra -Werror
 # Server headers as system headers: their own warnings are not ours to fix.
 PG_CPPFLAGS  = -isystem $(shell $(PG_CONFIG) --includedir-server 2>/dev/null)
-PG_CXXFLAGS  = -std=c++17 $(EIGEN_CFLAGS) $(WARN) -Wno-missing-field-initializers -O2
-SHLIB_LINK   = -lstdc++
+# -fno-semantic-interposition and -Bsymbolic: calls inside striae.so go direct
+# (and may inline) instead of through the PLT; nothing interposes our symbols.
+PG_CXXFLAGS  = -std=c++17 $(EIGEN_CFLAGS) $(WARN) -Wno-missing-field-initializers -O2 -fno-semantic-interposition
+SHLIB_LINK   = -lstdc++ -Wl,-Bsymbolic
 # Debian's server is built with LLVM; its bitcode rule would compile our C++
 # with clang in C++14 and without our flags. JIT inlining of striae is not needed.
 override with_llvm = no

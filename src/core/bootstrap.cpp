@@ -22,41 +22,12 @@ uint64_t splitmix64(uint64_t &x) {
   return z ^ (z >> 31);
 }
 
-inline uint64_t rotl(uint64_t x, int k) { return (x << k) | (x >> (64 - k)); }
-
 }  // namespace
 
 // Seed the four state words from splitmix64 (never all zero).
 Rng::Rng(uint64_t seed) {
   uint64_t x = seed;
   for (auto &w : s_) w = splitmix64(x);
-}
-
-// xoshiro256** step.
-uint64_t Rng::next() {
-  const uint64_t result = rotl(s_[1] * 5, 7) * 9;
-  const uint64_t t = s_[1] << 17;
-  s_[2] ^= s_[0];
-  s_[3] ^= s_[1];
-  s_[1] ^= s_[2];
-  s_[0] ^= s_[3];
-  s_[2] ^= t;
-  s_[3] = rotl(s_[3], 45);
-  return result;
-}
-
-// Lemire's unbiased bounded integer on the top 32 bits of a draw.
-uint32_t Rng::below(uint32_t bound) {
-  uint64_t m = (next() >> 32) * static_cast<uint64_t>(bound);
-  uint32_t low = static_cast<uint32_t>(m);
-  if (low < bound) {
-    const uint32_t threshold = static_cast<uint32_t>(-bound) % bound;  // 2^32 mod bound
-    while (low < threshold) {
-      m = (next() >> 32) * static_cast<uint64_t>(bound);
-      low = static_cast<uint32_t>(m);
-    }
-  }
-  return static_cast<uint32_t>(m >> 32);
 }
 
 // 53-bit uniform double in [0,1).

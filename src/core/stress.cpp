@@ -423,7 +423,8 @@ void check_slip_datum(const double n[3], const double u[3]) {
 // and w_k.w_l, w_k.u are one or two products of components each (derived from
 // the E_k above; the unit test compares with the a_k built explicitly). About
 // 60 operations instead of 130: this runs for every row.
-void stress_contribution(const double n[3], const double u[3], double out[20]) {
+namespace {
+STRIAE_HOT void contribution_terms(const double n[3], const double u[3], double out[20]) {
   const double n0 = n[0], n1 = n[1], n2 = n[2], u0 = u[0], u1 = u[1], u2 = u[2];
   const double s0 = n0 * n0, s1 = n1 * n1, s2 = n2 * n2;
   const double p01 = n0 * n1, p02 = n0 * n2, p12 = n1 * n2;
@@ -444,6 +445,9 @@ void stress_contribution(const double n[3], const double u[3], double out[20]) {
                         n2 * u1 + n1 * u2};
   for (int k = 0; k < 5; ++k) out[15 + k] = wu[k] - q[k] * nu;
 }
+}  // namespace
+
+void stress_contribution(const double n[3], const double u[3], double out[20]) { contribution_terms(n, u, out); }
 
 // Empty state: all zero.
 void stress_init(StressAccum &s) { std::memset(&s, 0, sizeof s); }
@@ -467,7 +471,7 @@ void stress_add_fault(StressAccum &s, const FaultSlip &f) {
   fault_vectors(f, n, u);
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   double c[20];
-  stress_contribution(nv, uv, c);
+  contribution_terms(nv, uv, c);
   for (int i = 0; i < 15; ++i) s.ata[i] += c[i];
   for (int i = 0; i < 5; ++i) s.atu[i] += c[15 + i];
   s.uu += uv[0] * uv[0] + uv[1] * uv[1] + uv[2] * uv[2];

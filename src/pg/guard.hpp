@@ -24,7 +24,7 @@ void capture_current(Failure &f) noexcept;
 [[noreturn]] void raise(const Failure &f);
 
 template <class F>
-inline auto guarded(F &&body) -> decltype(body()) {
+STRIAE_HOT auto guarded(F &&body) -> decltype(body()) {
   Failure failure;
   failure.sqlstate = 0;
   {

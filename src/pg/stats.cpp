@@ -14,7 +14,7 @@ using namespace striae_pg;
 namespace {
 
 // The datum's unit vector: a lineation as is, a plane by its pole.
-Vec3 datum_vector(FunctionCallInfo fcinfo, int k, bool is_plane) {
+STRIAE_HOT Vec3 datum_vector(FunctionCallInfo fcinfo, int k, bool is_plane) {
   if (is_plane) return pole_vector(*arg<Plane>(fcinfo, k));
   return line_vector(*arg<Line>(fcinfo, k));
 }
