@@ -14,7 +14,7 @@
 #     distances, the kept 95 %, their axes and Phi. Target: SQL / numpy <= 0.5.
 # SQL times: clock_timestamp() around EXECUTE in one session per round, after a
 # warm-up; numpy times: time.perf_counter(). Best of STRIAE_BENCH_ROUNDS rounds
-# (default 7: the machine is shared and its speed drifts; the minimum is the
+# (default 11: the machine is shared and its speed drifts; the minimum is the
 # stable statistic). The numpy process runs
 # with OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE unset (machine note: they slow
 # current numpy) and reports the BLAS threadpoolctl sees, if importable.
@@ -24,7 +24,7 @@
 # uniformly random strike, dip and rake.
 set -euo pipefail
 N="${STRIAE_BENCH_ROWS:-1000000}"
-ROUNDS="${STRIAE_BENCH_ROUNDS:-7}"
+ROUNDS="${STRIAE_BENCH_ROUNDS:-11}"
 : "${PGHOST:?run inside scripts/with-cluster.sh}"
 DIR="${STRIAE_SCRATCH:?run inside scripts/with-cluster.sh}/bench_stress"
 mkdir -p "$DIR"
