@@ -60,9 +60,7 @@ double snap_angle(double degrees);
 namespace detail {
 // sin and cos of the whole degrees 0..360, correctly rounded (orientation.cpp).
 extern const double (*const kDegreeTrig)[2];
-}  // namespace detail
 
-namespace detail {
 typedef double V2 __attribute__((vector_size(16)));
 typedef int64_t V2l __attribute__((vector_size(16)));
 typedef int V2i __attribute__((vector_size(8)));

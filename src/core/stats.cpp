@@ -13,7 +13,6 @@ namespace {
 // Helpers
 // ---------------------------------------------------------------------------
 
-
 // Add x to a compensated sum (Knuth's TwoSum: err is the exact rounding error).
 inline void comp_add(CompSum &s, double x) {
   const double t = s.hi + x;
@@ -371,8 +370,7 @@ void fisher_validate(const FisherState &s0) {
   if (cell_len > static_cast<double>(s0.tensor.pending) + sum_tol(s0.tensor.pending))
     bad_state(which, "cell sums are longer than the pending rows allow");
   FisherState s = s0;  // check block and compensated sums together
-  fold_tensor_block(s.tensor);
-  detail::fisher_fold_cells(s);
+  detail::fisher_fold(s);
   for (int k = 0; k < kFisherRefAxes; ++k)
     for (int c = 0; c < 3; ++c) check_comp(s.aligned[k][c], which, "aligned resultant");
   if (s.tensor.n == 0) {
@@ -404,8 +402,7 @@ void fisher_validate(const FisherState &s0) {
 FisherResult fisher_result(const FisherState &s0) {
   fisher_validate(s0);
   FisherState s = s0;
-  fold_tensor_block(s.tensor);
-  detail::fisher_fold_cells(s);
+  detail::fisher_fold(s);
   FisherResult r{};
   r.n = s.tensor.n;
   r.reference_axis = -1;

@@ -445,6 +445,17 @@ STRIAE_HOT void contribution_terms(const double n[3], const double u[3], double 
                         n2 * u1 + n1 * u2};
   for (int k = 0; k < 5; ++k) out[15 + k] = wu[k] - q[k] * nu;
 }
+
+
+// Add one datum's terms to the normal equations (vectors already checked).
+STRIAE_HOT void accumulate(StressAccum &s, const double n[3], const double u[3]) {
+  double c[20];
+  contribution_terms(n, u, c);
+  for (int i = 0; i < 15; ++i) s.ata[i] += c[i];
+  for (int i = 0; i < 5; ++i) s.atu[i] += c[15 + i];
+  s.uu += u[0] * u[0] + u[1] * u[1] + u[2] * u[2];
+  s.count += 1;
+}
 }  // namespace
 
 void stress_contribution(const double n[3], const double u[3], double out[20]) { contribution_terms(n, u, out); }
@@ -456,26 +467,17 @@ void stress_init(StressAccum &s) { std::memset(&s, 0, sizeof s); }
 void stress_add(StressAccum &s, const Vec3 &n, const Vec3 &u) {
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   check_slip_datum(nv, uv);
-  double c[20];
-  stress_contribution(nv, uv, c);
-  for (int i = 0; i < 15; ++i) s.ata[i] += c[i];
-  for (int i = 0; i < 5; ++i) s.atu[i] += c[15 + i];
-  s.uu += uv[0] * uv[0] + uv[1] * uv[1] + uv[2] * uv[2];
-  s.count += 1;
+  accumulate(s, nv, uv);
 }
 
 void stress_add_fault(StressAccum &s, const FaultSlip &f) {
   if (!std::isfinite(f.strike) || !std::isfinite(f.dip) || !std::isfinite(f.rake))
-    throw Error(ErrorKind::DataError, "fault-slip angles must be finite");
+    throw Error(ErrorKind::DataError, "fault-slip angles must be finite numbers",
+                "NaN and infinite values are not orientations.");
   Vec3 n, u;
   fault_vectors(f, n, u);
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
-  double c[20];
-  contribution_terms(nv, uv, c);
-  for (int i = 0; i < 15; ++i) s.ata[i] += c[i];
-  for (int i = 0; i < 5; ++i) s.atu[i] += c[15 + i];
-  s.uu += uv[0] * uv[0] + uv[1] * uv[1] + uv[2] * uv[2];
-  s.count += 1;
+  accumulate(s, nv, uv);
 }
 
 // Parallel combine: plain sums.
