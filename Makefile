@@ -4,12 +4,12 @@
 #   make install    install it into the PostgreSQL found by pg_config
 #   make test       install dependencies if missing, build, unit tests, then
 #                   pg_regress and external checks on a throwaway cluster
-#   make demo       install dependencies if missing, build, install, run the demo
+#   make demo       install dependencies if missing, build, run the demo
 #   make bench      benchmarks (ratios against baselines measured in the same run)
 #   make unit       GoogleTest unit tests of src/core only (no server)
 
 EXTENSION   = striae
-EXTVERSION  = 0.1.0
+EXTVERSION  = 0.2.0
 MODULE_big  = striae
 PG_CONFIG  ?= pg_config
 
@@ -17,7 +17,14 @@ CORE_SRCS   = $(sort $(wildcard src/core/*.cpp))
 GLUE_SRCS   = $(sort $(wildcard src/pg/*.cpp))
 OBJS        = $(CORE_SRCS:.cpp=.o) $(GLUE_SRCS:.cpp=.o)
 SQL_PARTS   = $(sort $(wildcard src/sql/*.sql))
-DATA_built  = $(EXTENSION)--$(EXTVERSION).sql
+# Released install scripts are frozen copies, never edited (src/sql/released/).
+# The upgrade script from 0.1.0 is the hand-written part for objects that
+# 0.1.0 already had (src/sql/upgrade/), followed by the fragments that are
+# wholly new in 0.2.0 (listed here), so a new object is written once.
+NEW_IN_0_2_0 =
+UPGRADE_0_2_0 = src/sql/upgrade/0.1.0--0.2.0.sql $(NEW_IN_0_2_0)
+DATA        = src/sql/released/$(EXTENSION)--0.1.0.sql
+DATA_built  = $(EXTENSION)--$(EXTVERSION).sql $(EXTENSION)--0.1.0--$(EXTVERSION).sql
 REGRESS     = $(basename $(notdir $(sort $(wildcard sql/*.sql))))
 REGRESS_OPTS = --dbname=striae_regress
 
@@ -42,8 +49,11 @@ all install installcheck:
 	@exit 1
 endif
 
-$(DATA_built): $(SQL_PARTS)
+$(EXTENSION)--$(EXTVERSION).sql: $(SQL_PARTS)
 	cat $(SQL_PARTS) > $@
+
+$(EXTENSION)--0.1.0--$(EXTVERSION).sql: $(UPGRADE_0_2_0)
+	cat $(UPGRADE_0_2_0) > $@
 
 # Every object depends on the headers (small project: rebuild all on a change).
 $(OBJS): $(wildcard src/core/*.hpp src/pg/*.hpp)
@@ -65,11 +75,12 @@ unit: $(UNIT_BIN)
 deps:
 	bash scripts/install-deps.sh
 
+# test, demo and bench install into the throwaway cluster's own directory
+# (with-cluster.sh --install, Debian's extension_destdir), never into the system.
 test: deps
 	$(MAKE) all
 	$(MAKE) unit
-	$(MAKE) install
-	bash scripts/with-cluster.sh $(MAKE) cluster-tests
+	bash scripts/with-cluster.sh --install $(MAKE) cluster-tests
 
 # Runs inside a throwaway cluster (PGHOST, PGPORT, PGUSER set by with-cluster.sh).
 cluster-tests:
@@ -78,13 +89,11 @@ cluster-tests:
 
 demo: deps
 	$(MAKE) all
-	$(MAKE) install
-	bash scripts/with-cluster.sh bash demo/run.sh
+	bash scripts/with-cluster.sh --install bash demo/run.sh
 
 bench: deps
 	$(MAKE) all
-	$(MAKE) install
-	bash scripts/with-cluster.sh bash bench/run.sh
+	bash scripts/with-cluster.sh --install bash bench/run.sh
 
 clean: clean-striae
 clean-striae:

@@ -1,11 +1,19 @@
 #!/usr/bin/env bash
 # Run a command against a throwaway PostgreSQL cluster:
-#   scripts/with-cluster.sh COMMAND [ARGS...]
+#   scripts/with-cluster.sh [--install] COMMAND [ARGS...]
+# With --install, `make install` goes into a directory of the cluster's own
+# (exported as STRIAE_DESTDIR) and the server finds striae there through
+# Debian's extension_destdir setting, so the system's PostgreSQL is never
+# touched and several checkouts can test at once.
 # Creates an unprivileged OS user (striae_pg) when run as root, initdb's into a
 # temporary directory, starts the server on a private Unix socket (no TCP),
 # exports PGHOST, PGPORT, PGUSER, PGDATABASE and STRIAE_PGDATA for the
 # command, and always stops the server and removes the directory afterwards.
 set -euo pipefail
+
+INSTALL=0
+if [ "${1:-}" = "--install" ]; then INSTALL=1; shift; fi
+ROOT="$(cd "$(dirname "$0")/.." && pwd)"
 
 PGBIN="$(pg_config --bindir)"
 RUNAS=()
@@ -45,6 +53,14 @@ fsync = off
 synchronous_commit = off
 full_page_writes = off
 CONF
+if [ $INSTALL -eq 1 ]; then
+  DEST="$TMP/inst"
+  make -s -C "$ROOT" install DESTDIR="$DEST" >"$TMP/install.log" 2>&1 ||
+    { cat "$TMP/install.log" >&2; exit 1; }
+  chmod -R a+rX "$DEST"
+  echo "extension_destdir = '$DEST'" >>"$DATA/postgresql.conf"
+  export STRIAE_DESTDIR="$DEST"
+fi
 "${RUNAS[@]}" "$PGBIN/pg_ctl" -D "$DATA" -l "$TMP/server.log" -w -t 60 start >/dev/null ||
   { cat "$TMP/server.log" >&2; exit 1; }
 
