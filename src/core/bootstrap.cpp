@@ -202,6 +202,7 @@ StressStatus focal_bootstrap(const SlipDatum *data, size_t count, const Friction
   std::vector<uint8_t> picks(count);
   std::vector<Resample> rs(static_cast<size_t>(opt.resamples));
   for (auto &r : rs) {
+    poll_interrupts();
     draw(rng, mult.data(), count);
     StressTensor t;
     double score;

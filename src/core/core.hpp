@@ -35,6 +35,22 @@ struct Error : std::runtime_error {
       : std::runtime_error(msg), kind(k), detail(std::move(det)), hint(std::move(hnt)) {}
 };
 
+// Cancellation (DESIGN.md, "Interrupts"). Every loop whose length depends on
+// the data or the parameters calls poll_interrupts() about every 10 ms of work
+// or more often. The glue sets interrupt_hook to a function that reads the
+// server's pending-interrupt flags (it never raises an error itself); when it
+// says stop, poll_interrupts throws Cancelled, which unwinds the C++ frames
+// normally and which the glue's guard turns into the server's own cancel or
+// timeout error after leaving its catch block. Cancelled is deliberately not a
+// std::exception, so no catch (const std::exception &) in src/core swallows it.
+// Outside the server (unit tests) the hook is null unless a test sets it.
+struct Cancelled {};
+using InterruptHook = bool (*)();
+extern InterruptHook interrupt_hook;
+inline void poll_interrupts() {
+  if (interrupt_hook != nullptr && interrupt_hook()) throw Cancelled{};
+}
+
 constexpr double kPi = 3.14159265358979323846;
 constexpr double kDeg = kPi / 180.0;  // degrees -> radians
 

@@ -31,6 +31,9 @@ void capture_current(Failure &f) noexcept {
   f.detail[0] = f.hint[0] = '\0';
   try {
     throw;
+  } catch (const striae::Cancelled &) {
+    f.sqlstate = kCancelledState;
+    copy(f.message, sizeof f.message, "canceling statement due to user request");
   } catch (const striae::Error &e) {
     f.sqlstate = sqlstate_of(e.kind);
     copy(f.message, sizeof f.message, e.what());
@@ -50,7 +53,20 @@ void capture_current(Failure &f) noexcept {
   }
 }
 
+bool interrupt_pending() {
+  // Only the interrupts that end the statement (cancel, statement_timeout,
+  // terminate), and only where the server would act on them now.
+  return InterruptPending && (QueryCancelPending || ProcDiePending) && INTERRUPTS_CAN_BE_PROCESSED();
+}
+
 void raise(const Failure &f) {
+  if (f.sqlstate == kCancelledState) {
+    // The core stopped because the hook saw a pending cancel or terminate:
+    // let the server report it as it always does (statement timeout, user
+    // request, termination). Should it not raise, the statement still ends.
+    CHECK_FOR_INTERRUPTS();
+    ereport(ERROR, (errcode(ERRCODE_QUERY_CANCELED), errmsg("%s", f.message)));
+  }
   ereport(ERROR, (errcode(f.sqlstate), errmsg("%s", f.message),
                   f.detail[0] ? errdetail("%s", f.detail) : 0,
                   f.hint[0] ? errhint("%s", f.hint) : 0));

@@ -10,6 +10,14 @@
 
 namespace striae_pg {
 
+// Failure::sqlstate of a computation stopped by the cancellation hook.
+constexpr int kCancelledState = -1;
+
+// The cancellation hook the glue gives src/core (core.hpp): true when a
+// cancel, statement timeout or terminate request is pending and may be
+// processed. Reads flags only; never raises.
+bool interrupt_pending();
+
 struct Failure {
   int sqlstate = 0;
   char message[1024];

@@ -14,6 +14,7 @@
 extern "C" {
 #include "postgres.h"
 #include "fmgr.h"
+#include "miscadmin.h"
 #include "funcapi.h"
 #include "libpq/pqformat.h"
 #include "utils/array.h"

@@ -119,4 +119,8 @@ STRIAE_TYPE_SUPPORT(fault_slip, FaultSlip)
 
 extern "C" {
 PG_MODULE_MAGIC;
+
+void _PG_init(void);
+// Library load: give src/core its cancellation hook.
+void _PG_init(void) { striae::interrupt_hook = striae_pg::interrupt_pending; }
 }
