@@ -80,7 +80,7 @@ deps:
 test: deps
 	$(MAKE) all
 	$(MAKE) unit
-	bash scripts/with-cluster.sh --install $(MAKE) cluster-tests
+	bash scripts/with-cluster.sh --install --clusters 3 $(MAKE) cluster-tests
 
 # Runs inside a throwaway cluster (PGHOST, PGPORT, PGUSER set by with-cluster.sh).
 cluster-tests:
@@ -93,7 +93,7 @@ demo: deps
 
 bench: deps
 	$(MAKE) all
-	bash scripts/with-cluster.sh --install bash bench/run.sh
+	bash scripts/with-cluster.sh --install --clusters 3 bash bench/run.sh
 
 clean: clean-striae
 clean-striae:
