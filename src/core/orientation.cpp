@@ -153,6 +153,24 @@ FaultSlip make_fault_slip(double strike, double dip, double rake) {
   return f;
 }
 
+namespace {
+// Wrap a finite angle; leave a non-finite one for the range check to reject.
+double wrap360(double v) { return std::isfinite(v) ? norm360(v) : v; }
+double wrap180(double v) { return std::isfinite(v) ? norm180(v) : v; }
+}  // namespace
+
+Plane make_plane_wrapping(double strike, double dip) { return make_plane(wrap360(strike), dip); }
+
+Plane make_plane_from_dip_direction_wrapping(double dip_direction, double dip) {
+  return make_plane_from_dip_direction(wrap360(dip_direction), dip);
+}
+
+Line make_line_wrapping(double trend, double plunge) { return make_line(wrap360(trend), plunge); }
+
+FaultSlip make_fault_slip_wrapping(double strike, double dip, double rake) {
+  return make_fault_slip(wrap360(strike), dip, wrap180(rake));
+}
+
 bool is_canonical(const Plane &p) {
   if (!std::isfinite(p.strike) || !std::isfinite(p.dip)) return false;
   if (p.strike < 0 || p.strike > 360 || p.dip < 0 || p.dip > 90) return false;

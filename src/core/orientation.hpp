@@ -47,6 +47,17 @@ Plane make_plane(double strike, double dip);
 Plane make_plane_from_dip_direction(double dip_direction, double dip);
 Line make_line(double trend, double plunge);
 FaultSlip make_fault_slip(double strike, double dip, double rake);
+// The numeric constructors of the SQL surface (plane(), lineation(),
+// fault_slip(), plane_from_dip_direction()): any finite azimuth (strike, trend,
+// dip direction) is wrapped into [0,360) and any finite rake into (-180,180],
+// so computed values such as strike + 10 need no modulo; dip and plunge keep
+// their ranges, and non-finite values are still OutOfRange. Text and binary
+// input keep the strict ranges of make_* above (an out-of-range number typed
+// in a literal is more likely a typo than a computation).
+Plane make_plane_wrapping(double strike, double dip);
+Plane make_plane_from_dip_direction_wrapping(double dip_direction, double dip);
+Line make_line_wrapping(double trend, double plunge);
+FaultSlip make_fault_slip_wrapping(double strike, double dip, double rake);
 
 // Re-check a value that arrived in binary form: it must already be canonical.
 bool is_canonical(const Plane &p);

@@ -9,28 +9,28 @@ using namespace striae_pg;
 
 STRIAE_FUNCTION(plane_make) {
   const double s = PG_GETARG_FLOAT8(0), d = PG_GETARG_FLOAT8(1);
-  return result(guarded([&] { return make_plane(s, d); }));
+  return result(guarded([&] { return make_plane_wrapping(s, d); }));
 }
 
 STRIAE_FUNCTION(plane_from_dip_direction) {
   const double dd = PG_GETARG_FLOAT8(0), d = PG_GETARG_FLOAT8(1);
-  return result(guarded([&] { return make_plane_from_dip_direction(dd, d); }));
+  return result(guarded([&] { return make_plane_from_dip_direction_wrapping(dd, d); }));
 }
 
 STRIAE_FUNCTION(lineation_make) {
   const double t = PG_GETARG_FLOAT8(0), p = PG_GETARG_FLOAT8(1);
-  return result(guarded([&] { return make_line(t, p); }));
+  return result(guarded([&] { return make_line_wrapping(t, p); }));
 }
 
 STRIAE_FUNCTION(fault_slip_make) {
   const double s = PG_GETARG_FLOAT8(0), d = PG_GETARG_FLOAT8(1), r = PG_GETARG_FLOAT8(2);
-  return result(guarded([&] { return make_fault_slip(s, d, r); }));
+  return result(guarded([&] { return make_fault_slip_wrapping(s, d, r); }));
 }
 
 STRIAE_FUNCTION(fault_slip_from_plane) {
   const Plane p = *arg<Plane>(fcinfo, 0);
   const double r = PG_GETARG_FLOAT8(1);
-  return result(guarded([&] { return make_fault_slip(p.strike, p.dip, r); }));
+  return result(guarded([&] { return make_fault_slip_wrapping(p.strike, p.dip, r); }));
 }
 
 STRIAE_FUNCTION(fault_slip_from_striation) {

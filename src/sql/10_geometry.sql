@@ -3,27 +3,27 @@
 CREATE FUNCTION plane(strike float8, dip float8) RETURNS plane
   AS 'MODULE_PATHNAME', 'plane_make' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION plane(float8, float8) IS
-  'plane from right-hand-rule strike (0..360) and dip (0..90), degrees';
+  'plane from right-hand-rule strike (any finite value, wrapped to 0..360) and dip (0..90), degrees';
 
 CREATE FUNCTION plane_from_dip_direction(dip_direction float8, dip float8) RETURNS plane
   AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION plane_from_dip_direction(float8, float8) IS
-  'plane from dip direction (0..360) and dip (0..90), degrees; strike = dip direction - 90';
+  'plane from dip direction (any finite value, wrapped to 0..360) and dip (0..90), degrees; strike = dip direction - 90';
 
 CREATE FUNCTION lineation(trend float8, plunge float8) RETURNS lineation
   AS 'MODULE_PATHNAME', 'lineation_make' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION lineation(float8, float8) IS
-  'line from trend (0..360) and plunge (-90..90; negative = upward, flipped to the lower hemisphere), degrees';
+  'line from trend (any finite value, wrapped to 0..360) and plunge (-90..90; negative = upward, flipped to the lower hemisphere), degrees';
 
 CREATE FUNCTION fault_slip(strike float8, dip float8, rake float8) RETURNS fault_slip
   AS 'MODULE_PATHNAME', 'fault_slip_make' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION fault_slip(float8, float8, float8) IS
-  'fault slip from right-hand-rule strike, dip and Aki & Richards rake (-180..180, positive = reverse), degrees';
+  'fault slip from right-hand-rule strike (any finite value, wrapped to 0..360), dip (0..90) and Aki & Richards rake (any finite value, wrapped to -180..180, positive = reverse), degrees';
 
 CREATE FUNCTION fault_slip(fault plane, rake float8) RETURNS fault_slip
   AS 'MODULE_PATHNAME', 'fault_slip_from_plane' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION fault_slip(plane, float8) IS
-  'fault slip from a plane and an Aki & Richards rake (degrees, measured from the right-hand-rule strike)';
+  'fault slip from a plane and an Aki & Richards rake (degrees, measured from the right-hand-rule strike; any finite value, wrapped to -180..180)';
 
 CREATE FUNCTION fault_slip(fault plane, striation lineation, sense text, tolerance float8 DEFAULT 10)
   RETURNS fault_slip
