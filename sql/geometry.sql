@@ -7,10 +7,10 @@
 SELECT plane(110, 64), plane_from_dip_direction(200, 64), lineation(300, -30),
        fault_slip(110, 64, -75), fault_slip('110/64'::plane, -75);
 SELECT q, pg_temp.err(q) FROM (VALUES
-  ('SELECT plane(361, 10)'), ('SELECT plane(10, -1)'), ('SELECT plane(''NaN'', 10)'),
-  ('SELECT plane(10, ''Infinity'')'), ('SELECT plane_from_dip_direction(-5, 10)'),
+  ('SELECT plane(361, 90.5)'), ('SELECT plane(10, -1)'), ('SELECT plane(''NaN'', 10)'),
+  ('SELECT plane(10, ''Infinity'')'), ('SELECT plane_from_dip_direction(-5, -10)'),
   ('SELECT lineation(10, 91)'), ('SELECT lineation(''-Infinity'', 10)'),
-  ('SELECT fault_slip(10, 10, 200)'), ('SELECT fault_slip(''110/64''::plane, ''NaN'')')) t(q);
+  ('SELECT fault_slip(370, 10, 200), fault_slip(10, 95, 0)'), ('SELECT fault_slip(''110/64''::plane, ''NaN'')')) t(q);
 SELECT plane(NULL, 10) IS NULL AS strict_null;
 
 -- striation + sense constructor (default tolerance 10 degrees)

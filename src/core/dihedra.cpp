@@ -40,7 +40,9 @@ void dihedra_add(DihedraHeader &h, int64_t *counts, const double *nodes, const d
   for (int32_t i = 0; i < k; ++i) {
     const double a = x[i] * n0 + y[i] * n1 + z[i] * n2;
     const double b = x[i] * u0 + y[i] * u1 + z[i] * u2;
-    counts[i] += (a * b < -kDihedraOnPlane) ? 1 : 0;
+    // 2 compressional, 1 on a nodal plane, 0 extensional (half-data units).
+    const double ab = a * b;
+    counts[i] += static_cast<int64_t>(ab < -kDihedraOnPlane) + static_cast<int64_t>(ab <= kDihedraOnPlane);
   }
   h.data_count += 1;
 }
@@ -68,14 +70,14 @@ void dihedra_validate(const DihedraHeader &h, const int64_t *counts) {
   if (h.reserved != 0) bad("reserved field is not zero");
   if (h.data_count < 0) bad("negative data count");
   for (int32_t i = 0; i < h.node_count; ++i)
-    if (counts[i] < 0 || counts[i] > h.data_count) bad("node count outside 0..data count");
+    if (counts[i] < 0 || counts[i] > 2 * h.data_count) bad("node count outside 0..2 data count");
 }
 
 // Percentages of compressional data per node.
 bool dihedra_finalise(const DihedraHeader &h, const int64_t *counts, double *percent) {
   if (h.data_count == 0) return false;
   const double n = static_cast<double>(h.data_count);
-  for (int32_t i = 0; i < h.node_count; ++i) percent[i] = 100.0 * static_cast<double>(counts[i]) / n;
+  for (int32_t i = 0; i < h.node_count; ++i) percent[i] = 50.0 * static_cast<double>(counts[i]) / n;
   return true;
 }
 

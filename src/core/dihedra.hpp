@@ -6,14 +6,18 @@
 // Rule: x is compressional for the datum (n, u) when (x.n)(x.u) < 0, extensional
 // when > 0 (METHODS.md section 5; the product is symmetric in n and u, so it does
 // not matter which nodal plane is the fault, and focal mechanisms can be added as
-// they are). A node ON a nodal plane (product exactly 0 in exact arithmetic) counts
-// as neither. Rounding would make such nodes (the horizontal ring of a vertical
+// they are). A node ON a nodal plane (product exactly 0 in exact arithmetic) is on
+// the boundary of the dihedra and counts as HALF compressional (0.5 of a datum), so
+// that grids of data recorded in whole degrees, whose nodal planes pass through
+// grid nodes, are not biased toward the extensional side (before 0.2.0 such nodes
+// counted 0). Rounding would make such nodes (the horizontal ring of a vertical
 // fault, the B axis) fall on either side at random, so "on the plane" is taken as
-// |(x.n)(x.u)| <= kDihedraOnPlane, i.e. within about 1e-12 rad of a nodal plane:
-// such a node gets no compressional count for that datum.
+// |(x.n)(x.u)| <= kDihedraOnPlane, i.e. within about 1e-12 rad of a nodal plane.
 //
 // Aggregate state for SQL: a DihedraHeader (spacing, data count, node count) and
-// one int64 count per node, in the layout order of grid_nodes(spacing). The node
+// one int64 count per node in HALF data (2 per compressional datum, 1 per datum
+// whose nodal plane passes through the node), in the layout order of
+// grid_nodes(spacing). The node
 // count depends on the spacing, so the functions work on a caller-owned count
 // array. All are PARALLEL SAFE: counts add exactly, in any order.
 #pragma once
@@ -49,7 +53,8 @@ std::vector<double> dihedra_node_table(double spacing_deg);
 // Fresh header for a spacing (checked); the caller zeroes its count array.
 DihedraHeader dihedra_init(double spacing_deg);
 
-// Add one datum: counts[i] += 1 where node i is compressional; data_count += 1.
+// Add one datum: counts[i] += 2 where node i is compressional, += 1 where it lies
+// on a nodal plane; data_count += 1.
 // nodes is the table of dihedra_node_table(h.spacing). n, u as check_slip_datum
 // accepts (DataError otherwise).
 void dihedra_add(DihedraHeader &h, int64_t *counts, const double *nodes, const double n[3],
@@ -61,10 +66,10 @@ void dihedra_combine(DihedraHeader &into, int64_t *into_counts, const DihedraHea
                      const int64_t *from_counts);
 
 // BadState unless the spacing is valid, node_count matches it, reserved is 0,
-// data_count >= 0 and every count is in 0..data_count.
+// data_count >= 0 and every (half) count is in 0..2 data_count.
 void dihedra_validate(const DihedraHeader &h, const int64_t *counts);
 
-// percent[i] = 100 * counts[i] / data_count (node_count values). Returns false
+// percent[i] = 50 * counts[i] / data_count (node_count values). Returns false
 // (percent untouched) when data_count is 0: the grid is undefined (SQL NULL).
 bool dihedra_finalise(const DihedraHeader &h, const int64_t *counts, double *percent);
 

@@ -704,6 +704,7 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
                         : static_cast<int>(std::floor((fr.mu_max - fr.mu_min) / fr.step + 1e-9)) + 1;
   std::vector<uint8_t> trial(count);
   bool have = false;
+  int best_j = -1;
   StressStatus last = StressStatus::Ok;
   for (int j = 0; j < steps; ++j) {
     // Rounded to 1e-12 so a search over 0.2, 0.3, ... reports 0.3, not 0.30000000000000004.
@@ -722,6 +723,7 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
       out.friction = mu;
       out.score = score;
       out.iterations = iters;
+      best_j = j;
       std::copy(trial.begin(), trial.end(), picked);
     }
   }
@@ -741,6 +743,7 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
   }
   out.tensor.friction = out.friction;
   out.tensor.flags |= kStressHasFriction;
+  if (steps > 1 && (best_j == 0 || best_j == steps - 1)) out.tensor.flags |= kStressFrictionAtLimit;
   return StressStatus::Ok;
 }
 

@@ -39,7 +39,8 @@ constexpr uint32_t kStressHasPhiInterval = 1u << 2;  // phi_lo, phi_hi are defin
 constexpr uint32_t kStressFocalJoint = 1u << 3;      // from the joint focal inversion
 constexpr uint32_t kStressNotConverged = 1u << 4;    // focal plane picking cycled or hit its iteration limit
 constexpr uint32_t kStressHasFriction = 1u << 5;     // friction is defined (joint focal inversion)
-constexpr uint32_t kStressKnownFlags = 0x3f;
+constexpr uint32_t kStressFrictionAtLimit = 1u << 6; // the friction search chose an end of its range (0.2.0)
+constexpr uint32_t kStressKnownFlags = 0x7f;
 constexpr uint32_t kStressTensorVersion = 1;
 
 // A reduced stress tensor and its quality measures. 120 bytes, plain doubles and
@@ -300,7 +301,14 @@ std::optional<double> mean_misfit(const SlipDatum *data, size_t count, const Str
 // j = 0, 1, .. while mu <= mu_max (+1e-9); each mu runs the procedure above and
 // is scored by the mean instability of the picked planes under its final tensor;
 // the highest score wins, a tie goes to the smaller mu. The returned tensor has
-// the exact mean misfit of the picked planes and kStressFocalJoint set.
+// the exact mean misfit of the picked planes and kStressFocalJoint set; when a
+// search ran (mu_min < mu_max) and chose its first or last value, also
+// kStressFrictionAtLimit: the best friction may lie outside the range searched.
+// What the search can tell: the score (mean instability) is usually flat in mu,
+// and on synthetic data made with mu = 0.6 it ends at the top of 0.2..1.0 (the
+// method's own behaviour, reproduced independently); the stress axes and Phi
+// change little with mu, so the friction chosen is a weak by-product, not a
+// measurement of the faults' friction.
 
 constexpr int kFocalMaxIterations = 50;
 constexpr int kMaxFrictionSteps = 1001;

@@ -77,7 +77,7 @@ class TensorReader {
     throw Error(ErrorKind::InvalidText,
                 std::string("invalid input syntax for type stress_tensor: \"") + text_ + "\"",
                 why + "; accepted: {\"components\": [nn, ee, dd, ne, nd, ed], \"n\": count} and optional "
-                      "\"misfit\", \"cones\" [3], \"phi_interval\" [2], \"friction\", \"flags\" [\"focal_joint\", \"not_converged\"]");
+                      "\"misfit\", \"cones\" [3], \"phi_interval\" [2], \"friction\", \"flags\" [\"focal_joint\", \"not_converged\", \"friction_at_limit\"]");
   }
   void skip_ws() {
     while (*p_ == ' ' || *p_ == '\t' || *p_ == '\n' || *p_ == '\r') ++p_;
@@ -140,6 +140,7 @@ class TensorReader {
       const std::string s = string_token();
       if (s == kStressFlagFocal) f |= kStressFocalJoint;
       else if (s == kStressFlagNotConverged) f |= kStressNotConverged;
+      else if (s == kStressFlagFrictionAtLimit) f |= kStressFrictionAtLimit;
       else fail("unknown flag \"" + s + "\"");
       skip_ws();
       if (*p_ == ',') { ++p_; continue; }

@@ -92,11 +92,18 @@ STRIAE_FUNCTION(stress_tensor_out) {
     appendStringInfoString(&b, ", \"friction\": ");
     append_number(&b, t.friction);
   }
-  if (t.flags & (kStressFocalJoint | kStressNotConverged)) {
+  if (t.flags & (kStressFocalJoint | kStressNotConverged | kStressFrictionAtLimit)) {
+    const struct { uint32_t bit; const char *name; } names[] = {
+        {kStressFocalJoint, kStressFlagFocal},
+        {kStressNotConverged, kStressFlagNotConverged},
+        {kStressFrictionAtLimit, kStressFlagFrictionAtLimit}};
+    const char *sep = "";
     appendStringInfoString(&b, ", \"flags\": [");
-    if (t.flags & kStressFocalJoint) appendStringInfo(&b, "\"%s\"", kStressFlagFocal);
-    if ((t.flags & kStressFocalJoint) && (t.flags & kStressNotConverged)) appendStringInfoString(&b, ", ");
-    if (t.flags & kStressNotConverged) appendStringInfo(&b, "\"%s\"", kStressFlagNotConverged);
+    for (const auto &f : names)
+      if (t.flags & f.bit) {
+        appendStringInfo(&b, "%s\"%s\"", sep, f.name);
+        sep = ", ";
+      }
     appendStringInfoChar(&b, ']');
   }
   appendStringInfoChar(&b, '}');
@@ -362,7 +369,7 @@ STRIAE_FUNCTION(stress_inversion_final) {
 
 namespace {
 
-constexpr uint32 kDihedraMagic = 0x53524431;  // "SRD1"
+constexpr uint32 kDihedraMagic = 0x53524432;  // "SRD2": counts in half data since 0.2.0
 // Largest node count we accept from a serialized state before dihedra_validate
 // (spacing 0.5 gives about 1.7e5 nodes; this is a generous bound on the length).
 constexpr int32 kDihedraMaxNodes = 1 << 22;

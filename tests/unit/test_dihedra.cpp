@@ -83,7 +83,8 @@ TEST(Dihedra, PureThrustQuadrants) {
   // Pure thrust 000/45/90: P horizontal E-W, T vertical, B = the strike line N-S
   // (METHODS.md section 2; derived from Aki & Richards conventions). So the
   // horizontal node at 090 is compressional, the vertical node extensional, and
-  // the node at 000/00 lies on both nodal planes: neither (documented rule).
+  // the node at 000/00 lies on both nodal planes: half (documented rule since 0.2.0;
+  // counts are in half data: 2 compressional, 1 on a plane).
   const double sp = 5;
   State s(sp);
   const std::vector<double> nodes = dihedra_node_table(sp);
@@ -92,9 +93,9 @@ TEST(Dihedra, PureThrustQuadrants) {
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   dihedra_add(s.h, s.counts.data(), nodes.data(), nv, uv);
   EXPECT_EQ(s.h.data_count, 1);
-  EXPECT_EQ(s.counts[node_of(sp, make_line(90, 0))], 1);
+  EXPECT_EQ(s.counts[node_of(sp, make_line(90, 0))], 2);
   EXPECT_EQ(s.counts[node_of(sp, make_line(0, 90))], 0);
-  EXPECT_EQ(s.counts[node_of(sp, make_line(0, 0))], 0);
+  EXPECT_EQ(s.counts[node_of(sp, make_line(0, 0))], 1);
   // The auxiliary plane (u, n) gives the same quadrants (the product is symmetric).
   State a(sp);
   dihedra_add(a.h, a.counts.data(), nodes.data(), uv, nv);
@@ -103,13 +104,13 @@ TEST(Dihedra, PureThrustQuadrants) {
   // compressional nodes is close to half (the grid is near-uniform).
   int64_t total = 0;
   for (int64_t c : s.counts) total += c;
-  EXPECT_NEAR(static_cast<double>(total) / s.h.node_count, 0.5, 0.05);
+  EXPECT_NEAR(static_cast<double>(total) / (2.0 * s.h.node_count), 0.5, 0.05);
 }
 
 TEST(Dihedra, VerticalSinistralQuadrantsAndPlaneNodes) {
   // Vertical sinistral 000/90/0: P 315/00 (= 135/00), T 225/00 (= 045/00)
   // (METHODS.md section 2, derived from Aki & Richards conventions). Every node of
-  // trend 000 lies on the fault plane, the vertical node on both planes: neither.
+  // trend 000 lies on the fault plane, the vertical node on both planes: half.
   const double sp = 5;
   State s(sp);
   const std::vector<double> nodes = dihedra_node_table(sp);
@@ -117,14 +118,14 @@ TEST(Dihedra, VerticalSinistralQuadrantsAndPlaneNodes) {
   fault_vectors(make_fault_slip(0, 90, 0), n, u);
   const double nv[3] = {n.x(), n.y(), n.z()}, uv[3] = {u.x(), u.y(), u.z()};
   dihedra_add(s.h, s.counts.data(), nodes.data(), nv, uv);
-  EXPECT_EQ(s.counts[node_of(sp, make_line(135, 0))], 1);
+  EXPECT_EQ(s.counts[node_of(sp, make_line(135, 0))], 2);
   EXPECT_EQ(s.counts[node_of(sp, make_line(45, 0))], 0);
-  EXPECT_EQ(s.counts[node_of(sp, make_line(0, 90))], 0);
+  EXPECT_EQ(s.counts[node_of(sp, make_line(0, 90))], 1);
   const std::vector<Line> lines = grid_nodes(sp);
   int on_plane = 0;
   for (size_t i = 0; i < lines.size(); ++i)
     if (lines[i].trend == 0.0) {
-      EXPECT_EQ(s.counts[i], 0) << lines[i].plunge;
+      EXPECT_EQ(s.counts[i], 1) << lines[i].plunge;
       ++on_plane;
     }
   EXPECT_GE(on_plane, 18);  // one per ring (grid.hpp layout starts each ring at trend 0)
@@ -183,7 +184,7 @@ TEST(Dihedra, CombineEqualsSerialAndValidate) {
     }
   };
   State bad = serial;
-  bad.counts[3] = serial.h.data_count + 1;
+  bad.counts[3] = 2 * serial.h.data_count + 1;
   expect_bad(bad.h, bad.counts);
   bad = serial;
   bad.counts[0] = -1;

@@ -1,0 +1,542 @@
+// Analysis aggregates and their per-row companions (issue 12): stress_phases and
+// stress_phase (hard division into stress phases, src/core/phases.hpp),
+// misfit_summary, moment_tensor_sum and kostrov_strain_rate (src/core/moment.hpp).
+// Glue only: unpack, call src/core inside guarded(), pack.
+#include "datum.hpp"
+
+#include "../core/moment.hpp"
+#include "../core/phases.hpp"
+#include "../core/stress.hpp"
+
+#include <vector>
+
+using namespace striae;
+using namespace striae_pg;
+
+namespace {
+
+[[noreturn]] void bad_serial(const char *fn) {
+  ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: not a serialized state of this aggregate", fn)));
+  pg_unreachable();
+}
+
+// Build a composite result of the function's declared row type.
+Datum composite(FunctionCallInfo fcinfo, Datum *values, bool *nulls) {
+  TupleDesc desc;
+  if (get_call_result_type(fcinfo, nullptr, &desc) != TYPEFUNC_COMPOSITE)
+    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED),
+                    errmsg("function returning record called in context that cannot accept it")));
+  desc = BlessTupleDesc(desc);
+  return HeapTupleGetDatum(heap_form_tuple(desc, values, nulls));
+}
+
+// Elements of a stress_tensor[] argument, validated; NULL elements are an error.
+std::vector<StressTensor> tensor_array(FunctionCallInfo fcinfo, int k) {
+  ArrayType *a = PG_GETARG_ARRAYTYPE_P(k);
+  Datum *elems;
+  bool *nulls;
+  int n;
+  deconstruct_array(a, ARR_ELEMTYPE(a), sizeof(StressTensor), false, TYPALIGN_DOUBLE, &elems, &nulls, &n);
+  std::vector<StressTensor> out;
+  out.reserve(n);
+  for (int i = 0; i < n; ++i) {
+    if (nulls[i])
+      ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("stress_phase: the array of tensors contains a NULL")));
+    out.push_back(*reinterpret_cast<const StressTensor *>(DatumGetPointer(elems[i])));
+  }
+  guarded([&] {
+    for (const auto &t : out) check_stress_tensor(t);
+  });
+  return out;
+}
+
+// ---- stress_phases: state keeping the data ----------------------------------------
+
+constexpr uint32 kPhaseMagic = 0x53504831;  // "SPH1"
+constexpr int64 kPhaseInitialCap = 64;
+
+struct PhaseAgg {
+  int32 phases;
+  int32 starts;
+  int64 seed;
+  int64 count;
+  int64 cap;
+  SlipDatum *data;
+};
+static_assert(std::is_trivially_destructible<PhaseAgg>::value, "palloc'd state");
+constexpr Size kPhaseHeader = 4 + 4 + 4 + 8 + 8;  // magic phases starts seed count
+
+PhaseAgg *phase_new(MemoryContext ctx, int32 phases, int32 starts, int64 seed, int64 cap) {
+  PhaseAgg *a = static_cast<PhaseAgg *>(MemoryContextAlloc(ctx, sizeof(PhaseAgg)));
+  a->phases = phases;
+  a->starts = starts;
+  a->seed = seed;
+  a->count = 0;
+  a->cap = Max(cap, kPhaseInitialCap);
+  a->data = static_cast<SlipDatum *>(MemoryContextAlloc(ctx, sizeof(SlipDatum) * a->cap));
+  return a;
+}
+
+PhaseAgg *phase_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<PhaseAgg *>(PG_GETARG_POINTER(k));
+}
+
+void phase_reserve(PhaseAgg *a, int64 need) {
+  if (need > static_cast<int64>(kMaxBootstrapData))
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE), errmsg("too many data for stress_phases"),
+                    errdetail("At most %d fault-slip data per group are kept.", static_cast<int>(kMaxBootstrapData)),
+                    errhint("Split the group.")));
+  if (need <= a->cap) return;
+  int64 cap = a->cap;
+  while (cap < need) cap *= 2;
+  cap = Min(cap, static_cast<int64>(kMaxBootstrapData));
+  a->data = static_cast<SlipDatum *>(repalloc(a->data, sizeof(SlipDatum) * cap));
+  a->cap = cap;
+}
+
+void phase_same(const PhaseAgg *a, int32 phases, int32 starts, int64 seed) {
+  if (a->phases != phases || a->starts != starts || a->seed != seed)
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                    errmsg("stress_phases parameters must be the same for every row of a group")));
+}
+
+void phase_validate(const PhaseAgg *a) {
+  guarded([&] {
+    PhaseOptions o;
+    o.phases = a->phases;
+    o.starts = a->starts;
+    check_phase_options(o);
+    if (a->count < 0 || a->count > a->cap || a->count > static_cast<int64>(kMaxBootstrapData))
+      throw Error(ErrorKind::BadState, "invalid stress_phases state: bad count");
+    for (int64 i = 0; i < a->count; ++i) check_slip_datum(a->data[i].n, a->data[i].u);
+  });
+}
+
+Datum phases_accum(FunctionCallInfo fcinfo, bool with_starts) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_phases_accum");
+  PhaseAgg *a = phase_state(fcinfo, 0);
+  if (PG_ARGISNULL(2) || PG_ARGISNULL(3) || (with_starts && PG_ARGISNULL(4)))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED),
+                    errmsg("stress_phases phases, seed and starts must not be NULL")));
+  const int32 phases = PG_GETARG_INT32(2);
+  const int64 seed = PG_GETARG_INT64(3);
+  const int32 starts = with_starts ? PG_GETARG_INT32(4) : kDefaultPhaseStarts;
+  if (a == nullptr) {
+    guarded([&] {
+      PhaseOptions o;
+      o.phases = phases;
+      o.starts = starts;
+      check_phase_options(o);
+    });
+    a = phase_new(ctx, phases, starts, seed, kPhaseInitialCap);
+  } else {
+    phase_same(a, phases, starts, seed);
+  }
+  if (!PG_ARGISNULL(1)) {
+    const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
+    const SlipDatum d = guarded([&] { return slip_datum(f); });
+    phase_reserve(a, a->count + 1);
+    a->data[a->count++] = d;
+  }
+  PG_RETURN_POINTER(a);
+}
+
+// ---- misfit_summary: state keeping the misfits -----------------------------------------
+
+constexpr uint32 kMisfitMagic = 0x534d5331;  // "SMS1"
+// Misfits kept per group: 8 bytes each, at most 10^7 (80 MB).
+constexpr int64 kMaxMisfits = 10000000;
+
+struct MisfitAgg {
+  double threshold;
+  int64 undefined;
+  int64 count;
+  int64 cap;
+  double *values;
+};
+static_assert(std::is_trivially_destructible<MisfitAgg>::value, "palloc'd state");
+constexpr Size kMisfitHeader = 4 + 8 + 8 + 8;  // magic threshold undefined count
+
+MisfitAgg *misfit_new(MemoryContext ctx, double threshold, int64 cap) {
+  MisfitAgg *a = static_cast<MisfitAgg *>(MemoryContextAlloc(ctx, sizeof(MisfitAgg)));
+  a->threshold = threshold;
+  a->undefined = 0;
+  a->count = 0;
+  a->cap = Max(cap, static_cast<int64>(64));
+  a->values = static_cast<double *>(MemoryContextAlloc(ctx, sizeof(double) * a->cap));
+  return a;
+}
+
+MisfitAgg *misfit_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<MisfitAgg *>(PG_GETARG_POINTER(k));
+}
+
+void misfit_reserve(MisfitAgg *a, int64 need) {
+  if (need > kMaxMisfits)
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE), errmsg("too many data for misfit_summary"),
+                    errdetail("At most 10000000 misfits per group are kept."), errhint("Split the group.")));
+  if (need <= a->cap) return;
+  int64 cap = a->cap;
+  while (cap < need) cap *= 2;
+  cap = Min(cap, kMaxMisfits);
+  a->values = static_cast<double *>(repalloc(a->values, sizeof(double) * cap));
+  a->cap = cap;
+}
+
+void misfit_validate(const MisfitAgg *a) {
+  guarded([&] {
+    check_misfit_threshold(a->threshold);
+    if (a->count < 0 || a->count > a->cap || a->count > kMaxMisfits || a->undefined < 0)
+      throw Error(ErrorKind::BadState, "invalid misfit_summary state: bad count");
+    for (int64 i = 0; i < a->count; ++i)
+      if (!(a->values[i] >= 0 && a->values[i] <= 180))
+        throw Error(ErrorKind::BadState, "invalid misfit_summary state: misfit outside 0..180");
+  });
+}
+
+// ---- moment_tensor_sum: fixed state -----------------------------------------------------
+
+constexpr uint32 kMomentMagic = 0x534d5431;  // "SMT1"
+
+MomentAccum *moment_state(FunctionCallInfo fcinfo, int k) {
+  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<MomentAccum *>(PG_GETARG_POINTER(k));
+}
+
+Datum moment_accum(FunctionCallInfo fcinfo, bool weighted) {
+  MomentAccum *s = moment_state(fcinfo, 0);
+  if (s == nullptr) {
+    MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_accum");
+    s = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
+    moment_init(*s);
+  }
+  // A row without a mechanism, or (weighted) without a magnitude, is skipped.
+  if (PG_ARGISNULL(1) || (weighted && PG_ARGISNULL(2))) PG_RETURN_POINTER(s);
+  const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
+  const double mw = weighted ? PG_GETARG_FLOAT8(2) : 0.0;
+  guarded([&] { moment_add(*s, f, weighted ? moment_from_magnitude(mw) : 1.0, weighted); });
+  PG_RETURN_POINTER(s);
+}
+
+}  // namespace
+
+// ---- stress_phases ------------------------------------------------------------------------
+
+STRIAE_FUNCTION(stress_phases_accum) { return phases_accum(fcinfo, false); }
+STRIAE_FUNCTION(stress_phases_starts_accum) { return phases_accum(fcinfo, true); }
+
+STRIAE_FUNCTION(stress_phases_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_phases_combine");
+  PhaseAgg *a = phase_state(fcinfo, 0), *b = phase_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  phase_validate(b);
+  if (a == nullptr) {
+    a = phase_new(ctx, b->phases, b->starts, b->seed, b->count);
+  } else {
+    phase_validate(a);
+    phase_same(a, b->phases, b->starts, b->seed);
+  }
+  phase_reserve(a, a->count + b->count);
+  std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
+  a->count += b->count;
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(stress_phases_serialize) {
+  agg_context(fcinfo, "stress_phases_serialize");
+  const PhaseAgg *a = reinterpret_cast<const PhaseAgg *>(PG_GETARG_POINTER(0));
+  phase_validate(a);
+  const Size size = VARHDRSZ + kPhaseHeader + sizeof(SlipDatum) * a->count;
+  bytea *out = static_cast<bytea *>(palloc(size));
+  SET_VARSIZE(out, size);
+  char *p = VARDATA(out);
+  std::memcpy(p, &kPhaseMagic, 4);
+  std::memcpy(p + 4, &a->phases, 4);
+  std::memcpy(p + 8, &a->starts, 4);
+  std::memcpy(p + 12, &a->seed, 8);
+  std::memcpy(p + 20, &a->count, 8);
+  std::memcpy(p + kPhaseHeader, a->data, sizeof(SlipDatum) * a->count);
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(stress_phases_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "stress_phases_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  const Size len = VARSIZE_ANY_EXHDR(in);
+  const char *p = VARDATA_ANY(in);
+  uint32 magic = 0;
+  int32 phases = 0, starts = 0;
+  int64 seed = 0, count = -1;
+  if (len >= kPhaseHeader) {
+    std::memcpy(&magic, p, 4);
+    std::memcpy(&phases, p + 4, 4);
+    std::memcpy(&starts, p + 8, 4);
+    std::memcpy(&seed, p + 12, 8);
+    std::memcpy(&count, p + 20, 8);
+  }
+  if (magic != kPhaseMagic || count < 0 || count > static_cast<int64>(kMaxBootstrapData) ||
+      len != kPhaseHeader + sizeof(SlipDatum) * static_cast<Size>(count))
+    bad_serial("stress_phases_deserialize");
+  PhaseAgg *a = phase_new(ctx, phases, starts, seed, count);
+  std::memcpy(a->data, p + kPhaseHeader, sizeof(SlipDatum) * count);
+  a->count = count;
+  phase_validate(a);
+  PG_RETURN_POINTER(a);
+}
+
+// NULL for an empty group, fewer than 4 k data, or no eligible division (phases.hpp).
+STRIAE_FUNCTION(stress_phases_final) {
+  PhaseAgg *a = phase_state(fcinfo, 0);
+  if (a == nullptr || a->count == 0) PG_RETURN_NULL();
+  phase_validate(a);
+  const Oid array_type = get_fn_expr_rettype(fcinfo->flinfo);
+  const Oid elem_type = OidIsValid(array_type) ? get_element_type(array_type) : InvalidOid;
+  if (!OidIsValid(elem_type))
+    ereport(ERROR, (errcode(ERRCODE_FEATURE_NOT_SUPPORTED), errmsg("stress_phases_final: cannot determine the result type")));
+  StressTensor *tensors = static_cast<StressTensor *>(palloc(sizeof(StressTensor) * kMaxPhases));
+  int k = 0;
+  const StressStatus st = guarded([&] {
+    sort_slip_data(a->data, static_cast<size_t>(a->count));
+    PhaseOptions o;
+    o.phases = a->phases;
+    o.starts = a->starts;
+    o.seed = static_cast<uint64_t>(a->seed);
+    std::vector<StressTensor> out;
+    const StressStatus s = separate_phases(a->data, static_cast<size_t>(a->count), o, out);
+    k = static_cast<int>(out.size());
+    std::copy(out.begin(), out.end(), tensors);
+    return s;
+  });
+  if (st != StressStatus::Ok) PG_RETURN_NULL();
+  Datum *elems = static_cast<Datum *>(palloc(sizeof(Datum) * k));
+  for (int i = 0; i < k; ++i) elems[i] = PointerGetDatum(&tensors[i]);
+  PG_RETURN_ARRAYTYPE_P(construct_array(elems, k, elem_type, sizeof(StressTensor), false, TYPALIGN_DOUBLE));
+}
+
+// 1-based index of the best-fitting tensor; NULL for an empty array.
+STRIAE_FUNCTION(stress_phase) {
+  const FaultSlip f = *arg<FaultSlip>(fcinfo, 0);
+  const std::vector<StressTensor> ts = tensor_array(fcinfo, 1);
+  if (ts.empty()) PG_RETURN_NULL();
+  const int j = guarded([&] {
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    std::optional<double> m;
+    return best_phase(n, u, ts.data(), ts.size(), m);
+  });
+  PG_RETURN_INT32(j + 1);
+}
+
+// ---- misfit_summary ------------------------------------------------------------------------
+
+STRIAE_FUNCTION(misfit_summary_accum) {
+  MemoryContext ctx = agg_context(fcinfo, "misfit_summary_accum");
+  MisfitAgg *a = misfit_state(fcinfo, 0);
+  if (PG_ARGISNULL(3))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("misfit_summary threshold must not be NULL")));
+  const double threshold = PG_GETARG_FLOAT8(3);
+  if (a == nullptr) {
+    guarded([&] { check_misfit_threshold(threshold); });
+    a = misfit_new(ctx, threshold, 64);
+  } else if (a->threshold != threshold) {
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                    errmsg("misfit_summary threshold must be the same for every row of a group")));
+  }
+  if (PG_ARGISNULL(1) || PG_ARGISNULL(2)) PG_RETURN_POINTER(a);  // rows without a datum or tensor: skipped
+  const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
+  const StressTensor t = *arg<StressTensor>(fcinfo, 2);
+  const std::optional<double> m = guarded([&] {
+    check_stress_tensor(t);
+    Vec3 n, u;
+    fault_vectors(f, n, u);
+    return misfit(n, u, t);
+  });
+  if (!m) {
+    a->undefined += 1;
+  } else {
+    misfit_reserve(a, a->count + 1);
+    a->values[a->count++] = *m;
+  }
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(misfit_summary_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "misfit_summary_combine");
+  MisfitAgg *a = misfit_state(fcinfo, 0), *b = misfit_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  misfit_validate(b);
+  if (a == nullptr) {
+    a = misfit_new(ctx, b->threshold, b->count);
+  } else {
+    misfit_validate(a);
+    if (a->threshold != b->threshold)
+      ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                      errmsg("misfit_summary threshold must be the same for every row of a group")));
+  }
+  misfit_reserve(a, a->count + b->count);
+  std::memcpy(a->values + a->count, b->values, sizeof(double) * b->count);
+  a->count += b->count;
+  a->undefined += b->undefined;
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(misfit_summary_serialize) {
+  agg_context(fcinfo, "misfit_summary_serialize");
+  const MisfitAgg *a = reinterpret_cast<const MisfitAgg *>(PG_GETARG_POINTER(0));
+  misfit_validate(a);
+  const Size size = VARHDRSZ + kMisfitHeader + sizeof(double) * a->count;
+  bytea *out = static_cast<bytea *>(palloc(size));
+  SET_VARSIZE(out, size);
+  char *p = VARDATA(out);
+  std::memcpy(p, &kMisfitMagic, 4);
+  std::memcpy(p + 4, &a->threshold, 8);
+  std::memcpy(p + 12, &a->undefined, 8);
+  std::memcpy(p + 20, &a->count, 8);
+  std::memcpy(p + kMisfitHeader, a->values, sizeof(double) * a->count);
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(misfit_summary_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "misfit_summary_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  const Size len = VARSIZE_ANY_EXHDR(in);
+  const char *p = VARDATA_ANY(in);
+  uint32 magic = 0;
+  double threshold = 0;
+  int64 undefined = 0, count = -1;
+  if (len >= kMisfitHeader) {
+    std::memcpy(&magic, p, 4);
+    std::memcpy(&threshold, p + 4, 8);
+    std::memcpy(&undefined, p + 12, 8);
+    std::memcpy(&count, p + 20, 8);
+  }
+  if (magic != kMisfitMagic || count < 0 || count > kMaxMisfits ||
+      len != kMisfitHeader + sizeof(double) * static_cast<Size>(count))
+    bad_serial("misfit_summary_deserialize");
+  MisfitAgg *a = misfit_new(ctx, threshold, count);
+  std::memcpy(a->values, p + kMisfitHeader, sizeof(double) * count);
+  a->count = count;
+  a->undefined = undefined;
+  misfit_validate(a);
+  PG_RETURN_POINTER(a);
+}
+
+// misfit_stats row: n, undefined, mean, median, above, threshold. NULL for an
+// empty group; mean and median NULL when no misfit is defined.
+STRIAE_FUNCTION(misfit_summary_final) {
+  MisfitAgg *a = misfit_state(fcinfo, 0);
+  if (a == nullptr || (a->count == 0 && a->undefined == 0)) PG_RETURN_NULL();
+  misfit_validate(a);
+  MisfitSummary s{};
+  const bool defined = guarded([&] {
+    return summarise_misfits(a->values, static_cast<size_t>(a->count), a->undefined, a->threshold, s);
+  });
+  Datum v[6] = {Int64GetDatum(s.count), Int64GetDatum(s.undefined), Float8GetDatum(s.mean),
+                Float8GetDatum(s.median), Int64GetDatum(s.above), Float8GetDatum(a->threshold)};
+  bool nulls[6] = {false, false, !defined, !defined, false, false};
+  return composite(fcinfo, v, nulls);
+}
+
+// ---- moment_tensor_sum -------------------------------------------------------------------
+
+STRIAE_FUNCTION(moment_tensor_sum_accum) { return moment_accum(fcinfo, false); }
+STRIAE_FUNCTION(moment_tensor_sum_weighted_accum) { return moment_accum(fcinfo, true); }
+
+STRIAE_FUNCTION(moment_tensor_sum_combine) {
+  MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_combine");
+  MomentAccum *a = moment_state(fcinfo, 0), *b = moment_state(fcinfo, 1);
+  if (b == nullptr) {
+    if (a == nullptr) PG_RETURN_NULL();
+    PG_RETURN_POINTER(a);
+  }
+  if (a == nullptr) {
+    a = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
+    std::memcpy(a, b, sizeof(MomentAccum));
+    guarded([&] { moment_validate(*a); });
+    PG_RETURN_POINTER(a);
+  }
+  guarded([&] {
+    moment_validate(*a);
+    moment_validate(*b);
+    moment_combine(*a, *b);
+  });
+  PG_RETURN_POINTER(a);
+}
+
+STRIAE_FUNCTION(moment_tensor_sum_serialize) {
+  agg_context(fcinfo, "moment_tensor_sum_serialize");
+  const MomentAccum *s = reinterpret_cast<const MomentAccum *>(PG_GETARG_POINTER(0));
+  guarded([&] { moment_validate(*s); });
+  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(MomentAccum)));
+  SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(MomentAccum));
+  std::memcpy(VARDATA(out), &kMomentMagic, 4);
+  std::memcpy(VARDATA(out) + 4, s, sizeof(MomentAccum));
+  PG_RETURN_BYTEA_P(out);
+}
+
+STRIAE_FUNCTION(moment_tensor_sum_deserialize) {
+  MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_deserialize");
+  bytea *in = PG_GETARG_BYTEA_PP(0);
+  uint32 magic = 0;
+  if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(MomentAccum)) std::memcpy(&magic, VARDATA_ANY(in), 4);
+  if (magic != kMomentMagic) bad_serial("moment_tensor_sum_deserialize");
+  MomentAccum *s = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
+  std::memcpy(s, VARDATA_ANY(in) + 4, sizeof(MomentAccum));
+  guarded([&] { moment_validate(*s); });
+  PG_RETURN_POINTER(s);
+}
+
+// moment_summary row (60_analysis.sql); NULL for an empty group.
+STRIAE_FUNCTION(moment_tensor_sum_final) {
+  const MomentAccum *s = moment_state(fcinfo, 0);
+  if (s == nullptr) PG_RETURN_NULL();
+  MomentSummary m{};
+  const bool any = guarded([&] { return moment_finalise(*s, m); });
+  if (!any) PG_RETURN_NULL();
+  const bool ax = m.has_axes;
+  Datum v[12] = {Int64GetDatum(m.count),
+                 ax ? float8_array(m.tensor, 6) : Datum(0),
+                 ax ? result(m.p) : Datum(0),
+                 ax ? result(m.b) : Datum(0),
+                 ax ? result(m.t) : Datum(0),
+                 ax ? result(m.best_dc) : Datum(0),
+                 Float8GetDatum(m.epsilon),
+                 Float8GetDatum(m.scalar_moment),
+                 Float8GetDatum(m.moment_sum),
+                 Float8GetDatum(m.consistency),
+                 float8_array(m.summed, 6),
+                 BoolGetDatum(m.weighted)};
+  bool nulls[12] = {false, !ax, !ax, !ax, !ax, !ax, !ax, false, false, false, false, false};
+  return composite(fcinfo, v, nulls);
+}
+
+// Kostrov strain rate from a moment_summary (its summed tensor in N m).
+STRIAE_FUNCTION(kostrov_strain_rate) {
+  HeapTupleHeader row = PG_GETARG_HEAPTUPLEHEADER(0);
+  bool null_summed = true, null_weighted = true;
+  const Datum summed = GetAttributeByName(row, "summed", &null_summed);
+  const Datum weighted = GetAttributeByName(row, "weighted", &null_weighted);
+  if (null_summed || null_weighted) PG_RETURN_NULL();
+  if (!DatumGetBool(weighted))
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                    errmsg("kostrov_strain_rate needs moments from magnitudes"),
+                    errhint("Use moment_tensor_sum(mechanism, magnitude); the unweighted sum has no physical moment.")));
+  ArrayType *arr = DatumGetArrayTypeP(summed);
+  if (ARR_NDIM(arr) != 1 || ArrayGetNItems(ARR_NDIM(arr), ARR_DIMS(arr)) != 6 || ARR_HASNULL(arr) ||
+      ARR_ELEMTYPE(arr) != FLOAT8OID)
+    ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("kostrov_strain_rate: summed must be 6 float8 values")));
+  const double *c = reinterpret_cast<const double *>(ARR_DATA_PTR(arr));
+  const double volume = PG_GETARG_FLOAT8(1), duration = PG_GETARG_FLOAT8(2), mu = PG_GETARG_FLOAT8(3);
+  double out[6];
+  guarded([&] {
+    for (int i = 0; i < 6; ++i)
+      if (!std::isfinite(c[i])) throw Error(ErrorKind::DataError, "summed moment tensor must be finite");
+    kostrov_strain_rate(c, volume, duration, mu, out);
+  });
+  return float8_array(out, 6);
+}
