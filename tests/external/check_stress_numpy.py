@@ -27,8 +27,11 @@ and 6 separately from src/core:
     linear inversion (Michael 1987, JGR 92:357 for the bootstrap itself, which
     is only range-checked here: its generator is striae's own);
   - right dihedra [pub: Angelier & Mechler 1977, Bull. Soc. geol. France
-    19:1309]: node x compressional for (n, u) when (x.n)(x.u) < -1e-12 (the
-    on-plane margin of dihedra.hpp); percent = 100 count / N on the node layout
+    19:1309]: node x compressional for (n, u) when (x.n)(x.u) < -1e-12, on a
+    nodal plane when |(x.n)(x.u)| <= 1e-12 (the on-plane margin of dihedra.hpp),
+    which counts as half a datum (striae's rule since 0.2.0, issue 12: the
+    boundary between the dihedra is shared equally); percent = 100 count / N on
+    the node layout
     rebuilt here from the ring rule documented in grid.hpp and the README
     (rings at plunge 0, s, .., 90; max(1, round(360 cos p / s)) nodes from trend
     0; the horizontal ring keeps trends [0,180); one node at plunge 90).
@@ -426,7 +429,7 @@ for g, (name, _, _) in enumerate(groups):
     a = X[:, 0:1] * n[:, 0] + X[:, 1:2] * n[:, 1] + X[:, 2:3] * n[:, 2]
     b = X[:, 0:1] * u[:, 0] + X[:, 1:2] * u[:, 1] + X[:, 2:3] * u[:, 2]
     prod = a * b
-    counts = np.sum(prod < -ON_PLANE, axis=1)
+    counts = np.sum(prod < -ON_PLANE, axis=1) + 0.5 * np.sum(np.abs(prod) <= ON_PLANE, axis=1)
     pct = 100.0 * counts / len(n)
     got = np.array([v for _, _, v in cells])
     dev = float(np.max(np.abs(got - pct)))
@@ -436,7 +439,7 @@ for g, (name, _, _) in enumerate(groups):
         fail(f"{gname}: right_dihedra differs at {bad} nodes, max {dev:.3e} percent")
     near = int(np.sum(np.abs(prod) <= ON_PLANE))
     if near:
-        info.append(f"{gname}: {near} node-datum pairs on a nodal plane (|(x.n)(x.u)| <= 1e-12, not counted)")
+        info.append(f"{gname}: {near} node-datum pairs on a nodal plane (|(x.n)(x.u)| <= 1e-12, counted half)")
     margin = np.abs(prod[np.abs(prod) > ON_PLANE])
     if margin.size and margin.min() < 1e-9:
         info.append(f"{gname}: closest off-plane product {margin.min():.2e} (rounding could matter below ~1e-15)")
