@@ -44,3 +44,7 @@ SELECT 'aggregates ' || (i % 6), concat_ws('|', fisher_mean(l), fisher_mean(p), 
   FROM u_data GROUP BY i % 6 ORDER BY i % 6;
 SELECT 'bootstrap focal ' || (i % 6), focal_stress_inversion(f, 0.6, 20, 3)
   FROM u_data WHERE i % 6 < 2 GROUP BY i % 6 ORDER BY i % 6;
+-- right dihedra with grid nodes exactly on nodal planes (the B axis of a pure thrust,
+-- the strike line of a vertical fault): counted 0 in 0.1.0, half since 0.2.0
+SELECT 'right dihedra on nodal planes', right_dihedra(f, 45)::text
+  FROM (VALUES ('0/45/90'::fault_slip), ('0/90/0'::fault_slip)) v(f);
