@@ -156,7 +156,7 @@ OLDER_STRESS = {
     "MARLOW": ((170.0, 5.0), (350.0, 85.0), 0.30),    # compression
     "TARN": ((200.0, 85.0), (20.0, 5.0), 0.50),       # extension
 }
-N_FIELD, N_REVERSED, N_OLDER = 40, 2, 2      # per site: 36 compatible + 4 planted (10 %)
+N_FIELD, N_REVERSED, N_OLDER = 50, 2, 12     # per site: 36 compatible + 2 reversed + 12 of the older phase
 N_FOCAL = 25                                 # focal mechanisms per site
 NOISE_SD = 3.0                               # degrees on strike, dip and rake
 MIN_SHEAR = 0.2                              # |tau| / (s1 - s3); the maximum is 0.5

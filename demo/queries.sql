@@ -82,14 +82,17 @@ SELECT site, count(*) AS events, count(*) FILTER (WHERE listed_plane = 'auxiliar
 -- all faults as a field party would first run it.
 CREATE TEMP TABLE field_inv AS
   SELECT site, stress_inversion(fault, 500, 20261) AS t FROM fault_slip_obs GROUP BY site;
--- Misfit of each fault under its site's inverted tensor; > 30 degrees is flagged.
+-- The population mixes two stress phases: separate it into two (hard division,
+-- stress_phases), then give each datum its phase and its misfit under that phase.
+CREATE TEMP TABLE field_phases AS
+  SELECT site, stress_phases(fault, 2, 20261) AS ph FROM fault_slip_obs GROUP BY site;
 CREATE TEMP TABLE fault_check AS
-  SELECT o.site, o.station, o.fault, o.planted, misfit(o.fault, i.t) AS misfit,
-         coalesce(misfit(o.fault, i.t) > 30, false) AS flagged
-    FROM fault_slip_obs o JOIN field_inv i USING (site);
--- The same inversion without the flagged faults.
-CREATE TEMP TABLE clean_inv AS
-  SELECT site, stress_inversion(fault, 500, 20261) AS t FROM fault_check WHERE NOT flagged GROUP BY site;
+  SELECT o.site, o.station, o.fault, o.planted, stress_phase(o.fault, p.ph) AS phase,
+         misfit(o.fault, p.ph[stress_phase(o.fault, p.ph)]) AS misfit
+    FROM fault_slip_obs o JOIN field_phases p USING (site);
+-- Each phase inverted again with bootstrap confidence on its own data.
+CREATE TEMP TABLE phase_inv AS
+  SELECT site, phase, stress_inversion(fault, 500, 20261) AS t FROM fault_check GROUP BY site, phase;
 -- Focal mechanisms: joint inversion (either nodal plane listed, friction searched)
 -- with bootstrap confidence (500 resamples, fixed seed).
 CREATE TEMP TABLE focal_inv AS
@@ -99,23 +102,29 @@ CREATE TEMP TABLE rd AS
   UNION ALL
   SELECT site, 'right_dihedra_focal', count(*), right_dihedra(mechanism, 5) FROM focal_event GROUP BY site;
 
+-- Each method's tensor against the truth it should recover: phase 2 (the smaller
+-- phase) against the older stress, everything else against the site's stress.
 CREATE TEMP VIEW stress_result AS
-  SELECT r.*, r.sigma1 <-> s.sigma1 AS sigma1_err, r.sigma3 <-> s.sigma3 AS sigma3_err, s.shape_ratio AS true_phi
+  SELECT r.*,
+         r.sigma1 <-> CASE WHEN r.method = 'phase_2' THEN s.older_sigma1 ELSE s.sigma1 END AS sigma1_err,
+         r.sigma3 <-> CASE WHEN r.method = 'phase_2' THEN s.older_sigma3 ELSE s.sigma3 END AS sigma3_err,
+         CASE WHEN r.method = 'phase_2' THEN s.older_shape_ratio ELSE s.shape_ratio END AS true_phi
     FROM (SELECT m.site, m.method, data_count(t) AS n, sigma1(t) AS sigma1, sigma1_confidence(t) AS cone1,
                  sigma3(t) AS sigma3, sigma3_confidence(t) AS cone3, shape_ratio(t) AS phi,
                  (shape_ratio_interval(t))[1] AS phi_lo, (shape_ratio_interval(t))[2] AS phi_hi,
                  shmax_azimuth(t) AS shmax, stress_regime(t) AS regime, regime_index(t) AS a_phi, mean_misfit(t) AS misfit
-            FROM (SELECT site, 1 AS o, 'field_faults' AS method, t FROM field_inv
-                  UNION ALL SELECT site, 2, 'field_faults_unflagged', t FROM clean_inv
-                  UNION ALL SELECT site, 3, 'focal_joint', t FROM focal_inv) m
+            FROM (SELECT site, 'field_faults' AS method, t FROM field_inv
+                  UNION ALL SELECT site, 'phase_' || phase, t FROM phase_inv
+                  UNION ALL SELECT site, 'focal_joint', t FROM focal_inv) m
           UNION ALL
           SELECT site, method, n, grid_max(g), NULL, grid_min(g), NULL, NULL, NULL, NULL, NULL, NULL, NULL, NULL FROM rd) r
     JOIN stress_truth s USING (site);
 \set QUIET off
 
 \echo '== Recovered stress per site and method vs the invented truth (degrees; cones are 95 % half-angles)'
-\echo '   field_faults: Michael inversion, 500 bootstrap resamples; field_faults_unflagged: the same without'
-\echo '   faults misfitting > 30 deg; focal_joint: Vavrycuk joint inversion, 500 bootstrap resamples;'
+\echo '   field_faults: Michael inversion of all field faults, 500 bootstrap resamples; phase_1, phase_2:'
+\echo '   stress_phases(fault, 2, seed) separates the two phases, each then inverted with 500 resamples'
+\echo '   (phase_2 is compared with the older stress); focal_joint: Vavrycuk joint inversion, 500 resamples;'
 \echo '   right_dihedra_*: grid_max / grid_min of a 5-degree right-dihedra grid'
 SELECT site, method, n, pg_temp.tp(sigma1) AS sigma1, pg_temp.r1(cone1) AS cone1,
        pg_temp.tp(sigma3) AS sigma3, pg_temp.r1(cone3) AS cone3,
@@ -124,21 +133,34 @@ SELECT site, method, n, pg_temp.tp(sigma1) AS sigma1, pg_temp.r1(cone1) AS cone1
        pg_temp.r1(sigma1_err) AS s1_err, pg_temp.r1(sigma3_err) AS s3_err, true_phi
   FROM stress_result ORDER BY site, method;
 
-\echo '== Faults flagged incompatible (misfit > 30 deg under the site''s field inversion) and the answer key'
-SELECT site, station, fault, slip_sense(fault) AS sense, pg_temp.r1(misfit) AS misfit,
-       coalesce(planted, 'no') AS planted
-  FROM fault_check WHERE flagged ORDER BY site, misfit DESC;
-
-\echo '== Flagging against the answer key per site'
-SELECT site, count(*) AS faults, count(*) FILTER (WHERE planted IS NOT NULL) AS planted,
-       count(*) FILTER (WHERE flagged) AS flagged,
-       count(*) FILTER (WHERE flagged AND planted IS NOT NULL) AS planted_flagged,
-       count(*) FILTER (WHERE NOT flagged AND planted IS NOT NULL) AS planted_missed,
-       count(*) FILTER (WHERE flagged AND planted IS NULL) AS false_alarms
+\echo '== Phase assignment against the answer key per site (phase 1 = the larger phase)'
+SELECT site, count(*) AS faults,
+       count(*) FILTER (WHERE planted IS NULL AND phase = 1) AS compatible_in_phase_1,
+       count(*) FILTER (WHERE planted IS NULL AND phase = 2) AS compatible_in_phase_2,
+       count(*) FILTER (WHERE planted = 'older phase' AND phase = 2) AS older_in_phase_2,
+       count(*) FILTER (WHERE planted = 'older phase' AND phase = 1) AS older_in_phase_1,
+       count(*) FILTER (WHERE planted = 'reversed') AS reversed
   FROM fault_check GROUP BY site ORDER BY site;
 
+\echo '== Misfit summary per site and phase (degrees; above = misfit > 30 under the own phase)'
+SELECT site, phase, (s).n, pg_temp.r1((s).mean) AS mean, pg_temp.r1((s).median) AS median, (s).above
+  FROM (SELECT site, phase, misfit_summary(o.fault, p.ph[phase], 30) s
+          FROM fault_check o JOIN field_phases p USING (site) GROUP BY site, phase) q ORDER BY site, phase;
+
+\echo '== Faults misfitting their own phase by more than 30 degrees, and the answer key'
+SELECT site, station, fault, slip_sense(fault) AS sense, phase, pg_temp.r1(misfit) AS misfit,
+       coalesce(planted, 'no') AS planted
+  FROM fault_check WHERE misfit > 30 ORDER BY site, misfit DESC;
+
 \copy (SELECT site, method, n, round(trend(sigma1)::numeric, 2) AS sigma1_trend, round(plunge(sigma1)::numeric, 2) AS sigma1_plunge, round(cone1::numeric, 2) AS sigma1_cone95, round(trend(sigma3)::numeric, 2) AS sigma3_trend, round(plunge(sigma3)::numeric, 2) AS sigma3_plunge, round(cone3::numeric, 2) AS sigma3_cone95, round(phi::numeric, 3) AS shape_ratio, round(phi_lo::numeric, 3) AS shape_ratio_low, round(phi_hi::numeric, 3) AS shape_ratio_high, round(shmax::numeric, 2) AS shmax_azimuth, regime, round(a_phi::numeric, 3) AS regime_index, round(misfit::numeric, 2) AS mean_misfit, round(sigma1_err::numeric, 2) AS sigma1_angle_to_true, round(sigma3_err::numeric, 2) AS sigma3_angle_to_true, true_phi AS true_shape_ratio FROM stress_result ORDER BY site, method) TO 'demo-out/stress_by_site.csv' WITH (FORMAT csv, HEADER)
-\copy (SELECT site, station, fault, slip_sense(fault) AS sense, round(misfit::numeric, 2) AS misfit, planted IS NOT NULL AS planted, planted AS planted_kind FROM fault_check WHERE flagged ORDER BY site, station) TO 'demo-out/flagged_faults.csv' WITH (FORMAT csv, HEADER)
+\copy (SELECT site, station, fault, slip_sense(fault) AS sense, phase, round(misfit::numeric, 2) AS misfit, planted IS NOT NULL AS planted, planted AS planted_kind FROM fault_check ORDER BY site, station) TO 'demo-out/fault_phases.csv' WITH (FORMAT csv, HEADER)
+
+\echo '== Summed moment tensor of the focal mechanisms per site (unit moments, Kostrov summation): P and T of the sum'
+SELECT site, (m).n, pg_temp.tp((m).p_axis) AS p_axis, pg_temp.tp((m).t_axis) AS t_axis, (m).best_double_couple,
+       pg_temp.r2((m).epsilon) AS epsilon, pg_temp.r2((m).consistency) AS consistency,
+       pg_temp.r1((m).p_axis <-> sigma1) AS p_to_true_sigma1, pg_temp.r1((m).t_axis <-> sigma3) AS t_to_true_sigma3
+  FROM (SELECT site, moment_tensor_sum(mechanism) m FROM focal_event GROUP BY site) q JOIN stress_truth USING (site)
+ ORDER BY site;
 
 \echo '== Friction coefficient chosen by the joint focal inversion (searched over 0.2..1.0) per site'
 SELECT site, friction(t) AS friction, round(mean_misfit(t)::numeric, 1) AS mean_misfit
