@@ -30,7 +30,7 @@ SELECT site, station, fault_as_written, fault_as_written::fault_slip AS canonica
 
 \echo '== Bedding per site and unit: cylindrical fold axis, mean bedding, fabric'
 SELECT site, unit, count(*) AS n, fold_axis(bedding) AS fold_axis, mean_plane(bedding) AS mean_bedding,
-       round((orientation_tensor(bedding)).girdle::numeric, 2) AS girdle_index
+       round((orientation_tensor(bedding)).vollmer_g::numeric, 2) AS girdle_index
   FROM bedding GROUP BY site, unit ORDER BY site, unit;
 
 \echo '== Mean lineation per site and unit with Fisher alpha95 (degrees)'

@@ -31,7 +31,7 @@ SELECT fold_axis(p) AS axis, round((s1 + s2 + s3)::numeric, 12) AS sum_s,
        s1 >= s2 AND s2 >= s3 AS sorted, round(s3::numeric, 12) AS s3, e3
   FROM fold, LATERAL (SELECT (orientation_tensor(p)).* FROM fold) o GROUP BY s1, s2, s3, e3;
 -- a point cluster: Woodcock K > 1 (cluster) and Vollmer point fabric dominant
-SELECT round(woodcock_k::numeric, 4) > 1 AS cluster, point > girdle AS point_dominant, n
+SELECT round(woodcock_k::numeric, 4) > 1 AS cluster, vollmer_p > vollmer_g AS point_dominant, n
   FROM (SELECT (orientation_tensor(l)).* FROM (VALUES ('10/40'::lineation), ('12/42'), ('8/41'), ('11/37')) t(l)) s;
 SELECT mean_plane(p) FROM (VALUES ('110/64'::plane), ('112/62'), ('108/66')) t(p);
 -- degenerate cases give NULL by the documented rule

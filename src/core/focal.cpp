@@ -106,7 +106,7 @@ const char *mechanism_class(const FaultSlip &f) {
   if (pt > 50.0) return "thrust";
   if (pb > 60.0) return "strike-slip";
   if (pp > 60.0) return "normal";
-  return "oblique";
+  return "unclassified";
 }
 
 }  // namespace striae

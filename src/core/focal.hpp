@@ -33,9 +33,14 @@ std::array<double, 6> moment_tensor_use(const FaultSlip &f);
 // to 1e-8 degree.
 double kagan_angle(const FaultSlip &a, const FaultSlip &b);
 
-// Frohlich (1992) classes from the plunges of T, B and P: "thrust" if
-// plunge(T) > 50, "strike-slip" if plunge(B) > 60, "normal" if plunge(P) > 60,
-// else "oblique" (thresholds from memory, see METHODS.md).
+// Mechanism class from the plunges of the T, B and P axes after Frohlich (1992,
+// PEPI 75:193); thresholds recalled from memory (METHODS.md section 2), not
+// checked against the paper here: "thrust" if plunge(T) > 50, "strike-slip" if
+// plunge(B) > 60, "normal" if plunge(P) > 60, else "unclassified" (the paper's
+// remaining class, which it calls odd as far as recalled). No two of the
+// conditions can hold at once: the squared sines of the three plunges of an
+// orthonormal frame add to 1, and sin^2 50 + sin^2 60 > 1, sin^2 60 + sin^2 60 > 1.
+// The words are those of stress_regime for the same faulting (one vocabulary).
 const char *mechanism_class(const FaultSlip &f);
 
 }  // namespace striae

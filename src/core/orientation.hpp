@@ -218,6 +218,12 @@ Plane plane_through(const Line &a, const Line &b);
 // Slip sense from a (canonical) rake: "normal", "reverse", "dextral",
 // "sinistral", or two of them, dominant first ("normal-dextral"), when the
 // rake is more than 22.5 degrees from a pure sense (common practice, no source).
+// One vocabulary with mechanism_class and stress_regime: "normal" and
+// "strike-slip" motion is named alike everywhere; the one word that differs is
+// "reverse" here against "thrust" there, on purpose: a slip sense describes the
+// motion on one fault of any dip, and a thrust is, in the trade's usage, a
+// reverse fault of low dip, while the published mechanism and regime schemes
+// (Frohlich 1992, Zoback 1992) name their class "thrust".
 const char *slip_sense(const FaultSlip &f);
 
 // Sense constraints given with a striation in the field.

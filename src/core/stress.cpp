@@ -276,14 +276,14 @@ std::optional<double> shmax_azimuth(const StressTensor &t) {
   return az;
 }
 
-// Zoback (1992) plunge classes (limits from memory, see header).
+// Zoback (1992) fault-regime classes (limits from memory, see header).
 StressRegime stress_regime_from_plunges(double p1, double p2, double p3) {
-  if (p1 >= 52 && p3 <= 35) return StressRegime::Extension;
-  if (p1 >= 40 && p1 < 52 && p3 <= 20) return StressRegime::Transtension;
+  if (p1 >= 52 && p3 <= 35) return StressRegime::Normal;
+  if (p1 >= 40 && p1 < 52 && p3 <= 20) return StressRegime::NormalStrikeSlip;
   if ((p1 < 40 && p2 >= 45 && p3 <= 20) || (p1 <= 20 && p2 >= 45 && p3 < 40)) return StressRegime::StrikeSlip;
-  if (p1 <= 20 && p3 >= 40 && p3 < 52) return StressRegime::Transpression;
-  if (p1 <= 35 && p3 >= 52) return StressRegime::Compression;
-  return StressRegime::Undetermined;
+  if (p1 <= 20 && p3 >= 40 && p3 < 52) return StressRegime::ThrustStrikeSlip;
+  if (p1 <= 35 && p3 >= 52) return StressRegime::Thrust;
+  return StressRegime::Unclassified;
 }
 
 // Regime of a tensor from its axis plunges.
@@ -294,17 +294,17 @@ StressRegime stress_regime(const StressTensor &t) {
   return stress_regime_from_plunges(pl[0], pl[1], pl[2]);
 }
 
-// Our own labels.
+// The scheme's wording in striae's spelling (see header).
 const char *stress_regime_label(StressRegime r) {
   switch (r) {
-    case StressRegime::Extension: return "extension";
-    case StressRegime::Transtension: return "transtension";
+    case StressRegime::Normal: return "normal";
+    case StressRegime::NormalStrikeSlip: return "normal-strike-slip";
     case StressRegime::StrikeSlip: return "strike-slip";
-    case StressRegime::Transpression: return "transpression";
-    case StressRegime::Compression: return "compression";
-    case StressRegime::Undetermined: break;
+    case StressRegime::ThrustStrikeSlip: return "thrust-strike-slip";
+    case StressRegime::Thrust: return "thrust";
+    case StressRegime::Unclassified: break;
   }
-  return "undetermined";
+  return "unclassified";
 }
 
 // Simpson (1997) A-phi.

@@ -113,21 +113,25 @@ double shape_ratio(const StressTensor &t);
 // Phi = 0, or vertical sigma3 with Phi = 1).
 std::optional<double> shmax_azimuth(const StressTensor &t);
 
-// Stress regime from the plunges of the principal axes, after the plunge classes
-// of Zoback (1992, JGR 97:11703, table 1). The class limits are recalled from
-// memory in METHODS.md section 2 and have not been verified against the paper:
-//   Extension      pl1 >= 52 and pl3 <= 35
-//   Transtension   40 <= pl1 < 52 and pl3 <= 20
-//   StrikeSlip     (pl1 < 40, pl2 >= 45, pl3 <= 20) or (pl1 <= 20, pl2 >= 45, pl3 < 40)
-//   Transpression  pl1 <= 20 and 40 <= pl3 < 52
-//   Compression    pl1 <= 35 and pl3 >= 52
-//   Undetermined   anything else
-// Plunges are in degrees, snapped to 1e-10 degree (snap_angle) before comparing.
-// The labels are striae's own descriptive words.
-enum class StressRegime { Extension, Transtension, StrikeSlip, Transpression, Compression, Undetermined };
+// Stress regime from the plunges of the principal axes: the fault-regime classes
+// of the World Stress Map scheme, Zoback (1992, JGR 97:11703, table 1). The
+// limits below are recalled from memory (METHODS.md section 2); they have not
+// been checked against the paper here. Plunges in degrees (pl1 of sigma1 ...):
+//   Normal            normal faulting                pl1 >= 52 and pl3 <= 35
+//   NormalStrikeSlip  normal with strike-slip        40 <= pl1 < 52 and pl3 <= 20
+//   StrikeSlip        strike-slip faulting           (pl1 < 40, pl2 >= 45, pl3 <= 20) or
+//                                                    (pl1 <= 20, pl2 >= 45, pl3 < 40)
+//   ThrustStrikeSlip  thrust with strike-slip        pl1 <= 20 and 40 <= pl3 < 52
+//   Thrust            thrust faulting                pl1 <= 35 and pl3 >= 52
+//   Unclassified      anything else (the scheme's "unknown")
+// The tests run in this order, so a state on a shared boundary takes the first
+// class. Plunges are snapped to 1e-10 degree (snap_angle) before comparing.
+// The labels spell the scheme's wording in striae's style (dominant motion
+// first, joined by '-', as slip_sense does): "normal", "normal-strike-slip",
+// "strike-slip", "thrust-strike-slip", "thrust", "unclassified".
+enum class StressRegime { Normal, NormalStrikeSlip, StrikeSlip, ThrustStrikeSlip, Thrust, Unclassified };
 StressRegime stress_regime(const StressTensor &t);
 StressRegime stress_regime_from_plunges(double pl1, double pl2, double pl3);
-// "extension", "transtension", "strike-slip", "transpression", "compression", "undetermined".
 const char *stress_regime_label(StressRegime r);
 
 // Regime index A-phi (Simpson 1997, JGR 102:17909; recalled from memory in METHODS):

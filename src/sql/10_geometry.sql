@@ -61,7 +61,7 @@ COMMENT ON FUNCTION fault_plane(fault_slip) IS 'the fault plane of a fault-slip 
 CREATE FUNCTION slip_sense(fault_slip) RETURNS text
   AS 'MODULE_PATHNAME', 'fault_slip_sense' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION slip_sense(fault_slip) IS
-  'sense of slip from the rake: normal, reverse, dextral, sinistral within 22.5 degrees of pure, else two senses, dominant first (e.g. normal-dextral)';
+  'sense of slip from the rake: normal, reverse, dextral, sinistral within 22.5 degrees of pure, else two senses, dominant first (e.g. normal-dextral); reverse, not thrust: the sense of one fault of any dip (mechanism_class and stress_regime name their class thrust, as their schemes do)';
 CREATE FUNCTION direction_cosines(lineation) RETURNS float8[]
   AS 'MODULE_PATHNAME', 'lineation_direction_cosines' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION direction_cosines(lineation) IS 'unit vector of a line as {north, east, down}';

@@ -27,4 +27,4 @@ COMMENT ON FUNCTION kagan_angle(fault_slip, fault_slip) IS
 CREATE FUNCTION mechanism_class(fault_slip) RETURNS text
   AS 'MODULE_PATHNAME', 'fault_slip_mechanism_class' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION mechanism_class(fault_slip) IS
-  'Frohlich (1992) class from P, T, B plunges: thrust (T > 50), strike-slip (B > 60), normal (P > 60), else oblique';
+  'mechanism class from the plunges of the T, B and P axes after Frohlich (1992, PEPI 75:193; thresholds recalled from memory, not checked against the paper): thrust (T > 50), strike-slip (B > 60), normal (P > 60), else unclassified; the same words as stress_regime';

@@ -8,9 +8,9 @@ COMMENT ON TYPE fisher_summary IS
 
 CREATE TYPE fabric_summary AS (
   e1 lineation, e2 lineation, e3 lineation, s1 float8, s2 float8, s3 float8,
-  woodcock_k float8, woodcock_c float8, point float8, girdle float8, random float8, n bigint);
+  woodcock_k float8, woodcock_c float8, vollmer_p float8, vollmer_g float8, vollmer_r float8, n bigint);
 COMMENT ON TYPE fabric_summary IS
-  'orientation tensor: eigenvectors e1..e3, normalised eigenvalues s1 >= s2 >= s3 (sum 1), Woodcock (1977) K and C, Vollmer (1990) point, girdle, random indices, count';
+  'orientation tensor: eigenvectors e1..e3, normalised eigenvalues s1 >= s2 >= s3 (sum 1), Woodcock (1977) K and C, Vollmer (1990) point, girdle and random indices P = s1 - s2, G = 2 (s2 - s3), R = 3 s3 (vollmer_p, vollmer_g, vollmer_r), count';
 
 -- sphere_grid: values at the nodes of a lower-hemisphere grid
 CREATE TYPE sphere_grid;

@@ -25,7 +25,7 @@ COMMENT ON FUNCTION stress_tensor_send(stress_tensor) IS 'binary output of stres
 CREATE FUNCTION stress_tensor(sigma1 lineation, sigma3 lineation, shape_ratio float8) RETURNS stress_tensor
   AS 'MODULE_PATHNAME', 'stress_tensor_from_axes' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION stress_tensor(lineation, lineation, float8) IS
-  'reduced stress tensor with sigma1 and sigma3 along the given axes (sigma3 orthogonalised against sigma1) and shape ratio Phi = (s2-s3)/(s1-s3) in 0..1 (Angelier 1979); data count 0';
+  'reduced stress tensor with sigma1 and sigma3 along the given axes (sigma3 orthogonalised against sigma1) and shape ratio Phi = (s2-s3)/(s1-s3) in 0..1 (Angelier 1979); data count 0. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 
 CREATE FUNCTION sigma1(stress_tensor) RETURNS lineation
   AS 'MODULE_PATHNAME' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
@@ -42,11 +42,11 @@ COMMENT ON FUNCTION shape_ratio(stress_tensor) IS 'shape ratio Phi = (s2-s3)/(s1
 CREATE FUNCTION shmax_azimuth(stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_shmax_azimuth' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION shmax_azimuth(stress_tensor) IS
-  'azimuth of maximum horizontal compression, degrees 0..180 (Lund & Townend 2007, eqs 10-11); NULL when horizontal stress is isotropic';
+  'azimuth of maximum horizontal compression, degrees 0..180 (Lund & Townend 2007, eqs 10-11); NULL when horizontal stress is isotropic. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION stress_regime(stress_tensor) RETURNS text
   AS 'MODULE_PATHNAME', 'stress_tensor_regime' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION stress_regime(stress_tensor) IS
-  'stress regime from the plunges of the principal axes after the plunge classes of Zoback (1992; limits recalled from memory): extension, transtension, strike-slip, transpression, compression or undetermined';
+  'fault regime from the plunges of the principal axes, classes of Zoback (1992, JGR 97:11703, table 1; limits recalled from memory, not checked against the paper): normal (pl1 >= 52, pl3 <= 35), normal-strike-slip (40 <= pl1 < 52, pl3 <= 20), strike-slip (pl1 < 40, pl2 >= 45, pl3 <= 20, or pl1 <= 20, pl2 >= 45, pl3 < 40), thrust-strike-slip (pl1 <= 20, 40 <= pl3 < 52), thrust (pl1 <= 35, pl3 >= 52), else unclassified. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION regime_index(stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_regime_index' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION regime_index(stress_tensor) IS
@@ -82,19 +82,19 @@ COMMENT ON FUNCTION stress_components(stress_tensor) IS 'tensor components {nn, 
 CREATE FUNCTION misfit(fault_slip, stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_misfit' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION misfit(fault_slip, stress_tensor) IS
-  'angle between observed slip and the resolved shear traction (Wallace 1951, Bott 1959), degrees 0..180; NULL when the plane is normal to a principal axis';
+  'angle between observed slip and the resolved shear traction (Wallace 1951, Bott 1959), degrees 0..180; NULL when the plane is normal to a principal axis. A convention error made on every datum (dip direction read as strike, rake sign reversed) fits a rotated or swapped stress state exactly as well, so a small misfit does not confirm the conventions. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION resolved_slip(plane, stress_tensor) RETURNS fault_slip
   AS 'MODULE_PATHNAME', 'stress_resolved_slip' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION resolved_slip(plane, stress_tensor) IS
-  'slip on the plane predicted by the Wallace-Bott hypothesis (direction of resolved shear traction); NULL when the plane is normal to a principal axis';
+  'slip on the plane predicted by the Wallace-Bott hypothesis (direction of resolved shear traction); NULL when the plane is normal to a principal axis. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION slip_tendency(plane, stress_tensor, friction float8 DEFAULT 0.6) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_slip_tendency' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION slip_tendency(plane, stress_tensor, float8) IS
-  'normalised slip tendency Ts/Ts_max, 0..1 (Morris et al. 1996), with magnitudes assumed so the optimal plane is at the frictional limit (friction 0.001..5): a relative measure, not a prediction of slip. Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
+  'normalised slip tendency Ts/Ts_max, 0..1 (Morris et al. 1996), with magnitudes assumed so the optimal plane is at the frictional limit (friction 0.001..5): a relative measure, not a prediction of slip. Pore-fluid pressure, which this function does not model, controls reactivation and induced seismicity. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION dilation_tendency(plane, stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_dilation_tendency' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION dilation_tendency(plane, stress_tensor) IS
-  'dilation tendency (s1 - sn)/(s1 - s3), 0..1 (Ferrill et al. 1999). Results are interpretive; where fault reactivation or induced seismicity matters, defer to site investigation, local codes and licensed professionals';
+  'dilation tendency (s1 - sn)/(s1 - s3), 0..1 (Ferrill et al. 1999). Pore-fluid pressure, which this function does not model, controls reactivation and induced seismicity. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 
 -- aggregate support functions (internal states; each validates what it is handed)
 CREATE FUNCTION stress_inversion_accum(internal, fault_slip) RETURNS internal
@@ -141,7 +141,7 @@ CREATE AGGREGATE right_dihedra(fault_slip, spacing float8) (
   COMBINEFUNC = right_dihedra_combine, SERIALFUNC = right_dihedra_serialize,
   DESERIALFUNC = right_dihedra_deserialize, PARALLEL = SAFE);
 COMMENT ON AGGREGATE right_dihedra(fault_slip, float8) IS
-  'right dihedra (Angelier & Mechler 1977): percent of data for which each node of a lower-hemisphere grid of the given spacing (degrees, dividing 90, 0.5..45) is in the compressional dihedron; sigma1 near the maximum, sigma3 near the minimum; NULL for an empty group';
+  'right dihedra (Angelier & Mechler 1977): percent of data for which each node of a lower-hemisphere grid of the given spacing (degrees, dividing 90, 0.5..45) is in the compressional dihedron; sigma1 near the maximum, sigma3 near the minimum; NULL for an empty group. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 
 -- aggregates that keep the group's data (at most 1,000,000 data, 48 bytes each)
 CREATE FUNCTION stress_bootstrap_accum(internal, fault_slip, integer, bigint) RETURNS internal

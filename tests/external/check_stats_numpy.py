@@ -166,7 +166,7 @@ for g, i, a, b in query("SET extra_float_digits = 3; SELECT g, i, trend(l), plun
 FISHER_SQL = ("SET extra_float_digits = 3; SELECT g, (s).mean, (s).n, (s).resultant, (s).kappa, (s).alpha95, "
               "(s).angular_sd FROM (SELECT g, fisher_mean({c}) s FROM {t} GROUP BY g) q ORDER BY g")
 TENSOR_SQL = ("SET extra_float_digits = 3; SELECT g, (f).e1, (f).e2, (f).e3, (f).s1, (f).s2, (f).s3, "
-              "(f).woodcock_k, (f).woodcock_c, (f).point, (f).girdle, (f).random, (f).n "
+              "(f).woodcock_k, (f).woodcock_c, (f).vollmer_p, (f).vollmer_g, (f).vollmer_r, (f).n "
               "FROM (SELECT g, orientation_tensor({c}) f FROM {t} GROUP BY g) q ORDER BY g")
 fisher = {int(r[0]): r[1:] for t, c in (("dl", "l"), ("dp", "p")) for r in query(FISHER_SQL.format(t=t, c=c), DB)}
 tensor = {int(r[0]): r[1:] for t, c in (("dl", "l"), ("dp", "p")) for r in query(TENSOR_SQL.format(t=t, c=c), DB)}

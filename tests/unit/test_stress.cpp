@@ -268,40 +268,40 @@ TEST(Shmax, MaximisesHorizontalNormalStress) {
 
 TEST(Regime, AndersonianStates) {
   // Canonical states against the Zoback (1992) plunge classes as recalled in
-  // METHODS.md (from memory, unverified): sigma1 vertical -> extension, sigma2
-  // vertical -> strike-slip, sigma3 vertical -> compression.
-  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, 90), make_line(45, 0), 0.5)), StressRegime::Extension);
+  // METHODS.md (from memory, unverified): sigma1 vertical -> normal, sigma2
+  // vertical -> strike-slip, sigma3 vertical -> thrust.
+  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, 90), make_line(45, 0), 0.5)), StressRegime::Normal);
   EXPECT_EQ(stress_regime(stress_from_axes(make_line(45, 0), make_line(135, 0), 0.5)), StressRegime::StrikeSlip);
-  EXPECT_EQ(stress_regime(stress_from_axes(make_line(45, 0), make_line(0, 90), 0.5)), StressRegime::Compression);
+  EXPECT_EQ(stress_regime(stress_from_axes(make_line(45, 0), make_line(0, 90), 0.5)), StressRegime::Thrust);
   // sigma1 plunging 45 with sigma3 horizontal; sigma3 plunging 45 with sigma1 horizontal.
-  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, 45), make_line(90, 0), 0.5)), StressRegime::Transtension);
-  EXPECT_EQ(stress_regime(stress_from_axes(make_line(90, 0), make_line(0, 45), 0.5)), StressRegime::Transpression);
+  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, 45), make_line(90, 0), 0.5)), StressRegime::NormalStrikeSlip);
+  EXPECT_EQ(stress_regime(stress_from_axes(make_line(90, 0), make_line(0, 45), 0.5)), StressRegime::ThrustStrikeSlip);
   // All three axes at 35.26 degrees (the body diagonal frame): none of the classes.
   const double p = deg(std::asin(1 / std::sqrt(3.0)));
-  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, p), make_line(120, p), 0.5)), StressRegime::Undetermined);
-  EXPECT_STREQ(stress_regime_label(StressRegime::Extension), "extension");
-  EXPECT_STREQ(stress_regime_label(StressRegime::Transtension), "transtension");
+  EXPECT_EQ(stress_regime(stress_from_axes(make_line(0, p), make_line(120, p), 0.5)), StressRegime::Unclassified);
+  EXPECT_STREQ(stress_regime_label(StressRegime::Normal), "normal");
+  EXPECT_STREQ(stress_regime_label(StressRegime::NormalStrikeSlip), "normal-strike-slip");
   EXPECT_STREQ(stress_regime_label(StressRegime::StrikeSlip), "strike-slip");
-  EXPECT_STREQ(stress_regime_label(StressRegime::Transpression), "transpression");
-  EXPECT_STREQ(stress_regime_label(StressRegime::Compression), "compression");
-  EXPECT_STREQ(stress_regime_label(StressRegime::Undetermined), "undetermined");
+  EXPECT_STREQ(stress_regime_label(StressRegime::ThrustStrikeSlip), "thrust-strike-slip");
+  EXPECT_STREQ(stress_regime_label(StressRegime::Thrust), "thrust");
+  EXPECT_STREQ(stress_regime_label(StressRegime::Unclassified), "unclassified");
 }
 
 TEST(Regime, ClassLimits) {
   // The limits of the recalled table (METHODS.md section 2, from memory), at and
   // just past each boundary.
-  EXPECT_EQ(stress_regime_from_plunges(52, 38, 35), StressRegime::Extension);
-  EXPECT_EQ(stress_regime_from_plunges(52, 30, 36), StressRegime::Undetermined);
-  EXPECT_EQ(stress_regime_from_plunges(51.9, 38, 20), StressRegime::Transtension);
-  EXPECT_EQ(stress_regime_from_plunges(40, 50, 20), StressRegime::Transtension);
+  EXPECT_EQ(stress_regime_from_plunges(52, 38, 35), StressRegime::Normal);
+  EXPECT_EQ(stress_regime_from_plunges(52, 30, 36), StressRegime::Unclassified);
+  EXPECT_EQ(stress_regime_from_plunges(51.9, 38, 20), StressRegime::NormalStrikeSlip);
+  EXPECT_EQ(stress_regime_from_plunges(40, 50, 20), StressRegime::NormalStrikeSlip);
   EXPECT_EQ(stress_regime_from_plunges(39.9, 50, 20), StressRegime::StrikeSlip);
-  EXPECT_EQ(stress_regime_from_plunges(39.9, 50, 20.1), StressRegime::Undetermined);
+  EXPECT_EQ(stress_regime_from_plunges(39.9, 50, 20.1), StressRegime::Unclassified);
   EXPECT_EQ(stress_regime_from_plunges(20, 45, 39.9), StressRegime::StrikeSlip);
-  EXPECT_EQ(stress_regime_from_plunges(20, 44.9, 39.9), StressRegime::Undetermined);
-  EXPECT_EQ(stress_regime_from_plunges(20, 40, 40), StressRegime::Transpression);
-  EXPECT_EQ(stress_regime_from_plunges(20, 30, 51.9), StressRegime::Transpression);
-  EXPECT_EQ(stress_regime_from_plunges(35, 10, 52), StressRegime::Compression);
-  EXPECT_EQ(stress_regime_from_plunges(35.1, 10, 52), StressRegime::Undetermined);
+  EXPECT_EQ(stress_regime_from_plunges(20, 44.9, 39.9), StressRegime::Unclassified);
+  EXPECT_EQ(stress_regime_from_plunges(20, 40, 40), StressRegime::ThrustStrikeSlip);
+  EXPECT_EQ(stress_regime_from_plunges(20, 30, 51.9), StressRegime::ThrustStrikeSlip);
+  EXPECT_EQ(stress_regime_from_plunges(35, 10, 52), StressRegime::Thrust);
+  EXPECT_EQ(stress_regime_from_plunges(35.1, 10, 52), StressRegime::Unclassified);
 }
 
 TEST(Regime, IndexAtClassBoundaries) {
