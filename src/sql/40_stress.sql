@@ -82,7 +82,7 @@ COMMENT ON FUNCTION stress_components(stress_tensor) IS 'tensor components {nn, 
 CREATE FUNCTION misfit(fault_slip, stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_misfit' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION misfit(fault_slip, stress_tensor) IS
-  'angle between observed slip and the resolved shear traction (Wallace 1951, Bott 1959), degrees 0..180; NULL when the plane is normal to a principal axis. A convention error made on every datum (dip direction read as strike, rake sign reversed) fits a rotated or swapped stress state exactly as well, so a small misfit does not confirm the conventions. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
+  'angle between observed slip and the resolved shear traction (Wallace 1951, Bott 1959), degrees 0..180; NULL when the plane is normal to a principal axis. A convention error made on every datum (dip direction or left-hand-rule strike read as right-hand-rule strike, the slip of the footwall given for that of the hanging wall) fits a rotated stress state, or one with sigma1 and sigma3 swapped, exactly as well: a small misfit does not confirm the conventions. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 CREATE FUNCTION resolved_slip(plane, stress_tensor) RETURNS fault_slip
   AS 'MODULE_PATHNAME', 'stress_resolved_slip' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION resolved_slip(plane, stress_tensor) IS
