@@ -8,7 +8,7 @@ PACKAGES=(
   postgresql-15 postgresql-client-15 postgresql-server-dev-15
   libeigen3-dev
   libgtest-dev
-  python3 python3-numpy
+  python3 python3-numpy python3-psycopg
 )
 
 missing=()
