@@ -77,4 +77,33 @@ echo "dump/restore of stress_tensor and sphere_grid: source $a, restored $b"
 bad=$(psql -X -At -d "$DST" -c "SELECT count(*) FROM d WHERE p::text::plane <> p OR l::text::lineation <> l OR f::text::fault_slip <> f")
 echo "text round trip: $bad mismatching rows"
 [ "$bad" = 0 ]
+# cone: binary COPY and text round trips; a table with GiST indexes dumped and
+# restored (pg_restore rebuilds the indexes) answers nearest-neighbour and cone
+# searches through the index exactly as the source does
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" <<'SQL'
+CREATE TABLE c AS SELECT i, cone(l, (i * 0.6180339887498949) % 90) AS lc, cone(p, (i * 0.5772156649015329) % 90) AS pc
+  FROM d WHERE i > 0;
+CREATE TABLE e AS SELECT i, l, p FROM d;
+CREATE INDEX e_l ON e USING gist (l);
+CREATE INDEX e_p ON e USING gist (p);
+SQL
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "\copy c TO '$W/c.bin' WITH (FORMAT binary)"
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "CREATE TABLE c2 (LIKE c)" -c "\copy c2 FROM '$W/c.bin' WITH (FORMAT binary)"
+bad=$(psql -X -q -At -d "$SRC" -c "SET extra_float_digits = 3" -c "SELECT count(*) FROM c FULL JOIN c2 USING (i)
+  WHERE c.lc::text IS DISTINCT FROM c2.lc::text OR c.pc::text IS DISTINCT FROM c2.pc::text
+     OR c.lc::text::cone::text IS DISTINCT FROM c.lc::text OR c.pc::text::cone::text IS DISTINCT FROM c.pc::text")
+echo "cone: binary COPY and text round trip, $bad mismatching rows of 2000"
+[ "$bad" = 0 ]
+pg_dump -Fc -d "$SRC" -t e -f "$W/e.dump"
+pg_restore -d "$DST" "$W/e.dump"
+q="SET enable_seqscan = off; SELECT md5(string_agg(x, ',' ORDER BY x)) FROM (
+     SELECT (SELECT string_agg(i::text, ' ' ORDER BY l <-> c.lc_axis, i) FROM (SELECT i, l FROM e ORDER BY l <-> c.lc_axis LIMIT 7) k)
+            || '|' || (SELECT count(*) FROM e WHERE p <@ cone(plane_from_pole(c.lc_axis), 10)) AS x
+       FROM (SELECT lineation((g * 37) % 360, (g * 11) % 90) AS lc_axis FROM generate_series(1, 50) g) c) s"
+a=$(psql -X -q -At -d "$SRC" -c "$q")
+b=$(psql -X -q -At -d "$DST" -c "$q")
+plan=$(psql -X -q -At -d "$DST" -c "SET enable_seqscan = off" -c "EXPLAIN (COSTS OFF) SELECT i FROM e ORDER BY l <-> '10/10' LIMIT 7")
+echo "$plan" | grep -q "Index Scan using e_l" || { echo "restored GiST index not used: $plan"; exit 1; }
+echo "dump/restore with GiST indexes: source $a, restored $b (restored index used)"
+[ "$a" = "$b" ]
 echo "check_roundtrip: ok"
