@@ -17,7 +17,7 @@ SELECT v, fault_slip_input_error(v) AS reason
   FROM (VALUES ('110/64/75'), ('110/64/75 Q'), ('290/64S/-75'), ('110/64/75W'), ('110/64/75 N D')) t(v);
 SELECT v, slip_sense_input_error(v) AS reason FROM (VALUES ('nd'), ('normal reverse'), ('up')) t(v);
 SELECT stress_tensor_input_error('{"components": [1, 0, 0, 0, 0, 0], "n": 1}') AS trace,
-       stress_tensor_input_error('{"components": [0.5, -0.5, 0, 0.5, 0, 0]}') AS no_n,
+       left(stress_tensor_input_error('{"components": [0.5, -0.5, 0, 0.5, 0, 0]}'), 33) AS no_n,
        sphere_grid_input_error('{"kind": "density", "spacing": 45, "n": 3, "values": [1, 1, 1]}') AS short,
        sphere_grid_input_error('{"kind": "right_dihedra", "spacing": 45, "n": 3, "values": [1,1,1,1,1,1,1,1,1,1,101]}') AS percent;
 -- the generic form names the notation; an unknown one is an error, NULL is NULL

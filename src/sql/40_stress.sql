@@ -50,7 +50,7 @@ COMMENT ON FUNCTION stress_regime(stress_tensor) IS
 CREATE FUNCTION regime_index(stress_tensor) RETURNS float8
   AS 'MODULE_PATHNAME', 'stress_regime_index' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION regime_index(stress_tensor) IS
-  'regime index A-phi of Simpson (1997), 0..3: 0..1 extensional, 1..2 strike-slip, 2..3 compressional';
+  'regime index A-phi of Simpson (1997), 0..3: 0..1 normal faulting, 1..2 strike-slip, 2..3 thrust faulting (the words of stress_regime)';
 CREATE FUNCTION data_count(stress_tensor) RETURNS bigint
   AS 'MODULE_PATHNAME', 'stress_data_count' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;
 COMMENT ON FUNCTION data_count(stress_tensor) IS 'number of data behind the tensor (0 for a tensor built from axes)';
