@@ -3,6 +3,7 @@
 // aggregate context), with combine, serialize and deserialize functions so the
 // aggregates run in parallel plans. Every support function validates the
 // state it is handed.
+#include "agg.hpp"
 #include "grid.hpp"
 
 #include "../core/density.hpp"
@@ -21,60 +22,88 @@ STRIAE_HOT Vec3 datum_vector(FunctionCallInfo fcinfo, int k, bool is_plane) {
 
 // ---- fixed-size states (Fisher, tensor) ------------------------------------
 
-// Serialized form: a 4-byte magic, then the raw struct.
+// In memory a state is its kind tag and the core's struct (agg_state.hpp);
+// serialized, the core's magic and the struct.
 template <class S> struct StateInfo;
 template <> struct StateInfo<FisherState> {
-  static constexpr uint32 magic = 0x53464931;  // "SFI1"
+  static constexpr StateKind kind = StateKind::Fisher;
+  static constexpr size_t serial_size = kFisherSerialSize;
   static void init(FisherState &s) { fisher_init(s); }
   static void add(FisherState &s, const Vec3 &v) { fisher_add(s, v); }
   static void combine(FisherState &a, const FisherState &b) { fisher_combine(a, b); }
   static void validate(const FisherState &s) { fisher_validate(s); }
+  static void write(const FisherState &s, unsigned char *out) { write_fisher_state(s, out); }
+  static void read(const unsigned char *p, size_t n, FisherState &s, const char *fn) { read_fisher_state(p, n, s, fn); }
 };
 template <> struct StateInfo<TensorState> {
-  static constexpr uint32 magic = 0x53544e31;  // "STN1"
+  static constexpr StateKind kind = StateKind::Tensor;
+  static constexpr size_t serial_size = kTensorSerialSize;
   static void init(TensorState &s) { tensor_init(s); }
   static void add(TensorState &s, const Vec3 &v) { tensor_add(s, v); }
   static void combine(TensorState &a, const TensorState &b) { tensor_combine(a, b); }
   static void validate(const TensorState &s) { tensor_validate(s); }
+  static void write(const TensorState &s, unsigned char *out) { write_tensor_state(s, out); }
+  static void read(const unsigned char *p, size_t n, TensorState &s, const char *fn) { read_tensor_state(p, n, s, fn); }
 };
 
 template <class S>
+struct Tagged {
+  StateTag tag;
+  S s;
+};
+static_assert(std::is_trivially_destructible<Tagged<FisherState>>::value &&
+                  std::is_trivially_destructible<Tagged<TensorState>>::value,
+              "palloc'd state");
+
+template <class S>
+Tagged<S> *tagged_new(MemoryContext ctx) {
+  Tagged<S> *t = static_cast<Tagged<S> *>(MemoryContextAlloc(ctx, sizeof(Tagged<S>)));
+  t->tag = state_tag(StateInfo<S>::kind);
+  return t;
+}
+
+template <class S>
+Tagged<S> *tagged_arg(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<Tagged<S>>(fcinfo, k, fn, StateInfo<S>::kind);
+}
+
+template <class S>
 Datum accum(FunctionCallInfo fcinfo, bool is_plane, const char *fn) {
-  S *s = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<S *>(PG_GETARG_POINTER(0));
-  if (s == nullptr) {
+  Tagged<S> *t = tagged_arg<S>(fcinfo, 0, fn);
+  if (t == nullptr) {
     // The aggregate-context check runs when the state is created, as in
     // PostgreSQL's own transition functions: a non-NULL internal state can
     // only come from a call that passed it (SQL cannot make one).
     MemoryContext ctx = agg_context(fcinfo, fn);
-    s = static_cast<S *>(MemoryContextAlloc(ctx, sizeof(S)));
-    StateInfo<S>::init(*s);
+    t = tagged_new<S>(ctx);
+    StateInfo<S>::init(t->s);
   }
   if (!PG_ARGISNULL(1)) {
     const Vec3 v = datum_vector(fcinfo, 1, is_plane);
-    guarded([&] { StateInfo<S>::add(*s, v); });
+    guarded([&] { StateInfo<S>::add(t->s, v); });
   }
-  PG_RETURN_POINTER(s);
+  PG_RETURN_POINTER(t);
 }
 
 template <class S>
 Datum combine(FunctionCallInfo fcinfo, const char *fn) {
   MemoryContext ctx = agg_context(fcinfo, fn);
-  S *a = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<S *>(PG_GETARG_POINTER(0));
-  S *b = PG_ARGISNULL(1) ? nullptr : reinterpret_cast<S *>(PG_GETARG_POINTER(1));
+  Tagged<S> *a = tagged_arg<S>(fcinfo, 0, fn);
+  Tagged<S> *b = tagged_arg<S>(fcinfo, 1, fn);
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
   if (a == nullptr) {
-    a = static_cast<S *>(MemoryContextAlloc(ctx, sizeof(S)));
-    std::memcpy(a, b, sizeof(S));
-    guarded([&] { StateInfo<S>::validate(*a); });
+    a = tagged_new<S>(ctx);
+    a->s = b->s;
+    guarded([&] { StateInfo<S>::validate(a->s); });
     PG_RETURN_POINTER(a);
   }
   guarded([&] {
-    StateInfo<S>::validate(*a);
-    StateInfo<S>::validate(*b);
-    StateInfo<S>::combine(*a, *b);
+    StateInfo<S>::validate(a->s);
+    StateInfo<S>::validate(b->s);
+    StateInfo<S>::combine(a->s, b->s);
   });
   PG_RETURN_POINTER(a);
 }
@@ -82,13 +111,10 @@ Datum combine(FunctionCallInfo fcinfo, const char *fn) {
 template <class S>
 Datum serialize(FunctionCallInfo fcinfo, const char *fn) {
   agg_context(fcinfo, fn);
-  const S *s = reinterpret_cast<const S *>(PG_GETARG_POINTER(0));
-  guarded([&] { StateInfo<S>::validate(*s); });
-  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(S)));
-  SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(S));
-  const uint32 magic = StateInfo<S>::magic;
-  std::memcpy(VARDATA(out), &magic, 4);
-  std::memcpy(VARDATA(out) + 4, s, sizeof(S));
+  const Tagged<S> *t = tagged_arg<S>(fcinfo, 0, fn);
+  bytea *out = bytea_alloc(StateInfo<S>::serial_size);
+  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
+  guarded([&] { StateInfo<S>::write(t->s, p); });
   PG_RETURN_BYTEA_P(out);
 }
 
@@ -96,14 +122,11 @@ template <class S>
 Datum deserialize(FunctionCallInfo fcinfo, const char *fn) {
   MemoryContext ctx = agg_context(fcinfo, fn);
   bytea *in = PG_GETARG_BYTEA_PP(0);
-  uint32 magic = 0;
-  if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(S)) std::memcpy(&magic, VARDATA_ANY(in), 4);
-  if (magic != StateInfo<S>::magic)
-    ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: not a serialized state of this aggregate", fn)));
-  S *s = static_cast<S *>(MemoryContextAlloc(ctx, sizeof(S)));
-  std::memcpy(s, VARDATA_ANY(in) + 4, sizeof(S));
-  guarded([&] { StateInfo<S>::validate(*s); });
-  PG_RETURN_POINTER(s);
+  Tagged<S> *t = tagged_new<S>(ctx);
+  const unsigned char *p = bytea_bytes(in);
+  const size_t n = VARSIZE_ANY_EXHDR(in);
+  guarded([&] { StateInfo<S>::read(p, n, t->s, fn); });
+  PG_RETURN_POINTER(t);
 }
 
 // Build a composite result of the function's declared row type.
@@ -128,9 +151,9 @@ STRIAE_FUNCTION(fisher_serialize) { return serialize<FisherState>(fcinfo, "fishe
 STRIAE_FUNCTION(fisher_deserialize) { return deserialize<FisherState>(fcinfo, "fisher_deserialize"); }
 
 STRIAE_FUNCTION(fisher_final) {
-  if (PG_ARGISNULL(0)) PG_RETURN_NULL();
-  const FisherState *s = reinterpret_cast<const FisherState *>(PG_GETARG_POINTER(0));
-  const FisherResult r = guarded([&] { return fisher_result(*s); });
+  const Tagged<FisherState> *t = tagged_arg<FisherState>(fcinfo, 0, "fisher_final");
+  if (t == nullptr) PG_RETURN_NULL();
+  const FisherResult r = guarded([&] { return fisher_result(t->s); });
   if (r.n == 0) PG_RETURN_NULL();
   // mean lineation, n bigint, resultant, kappa, alpha95, angular_sd
   Datum v[6] = {r.mean_valid ? line_datum(r.mean) : (Datum)0, Int64GetDatum(r.n),
@@ -149,15 +172,16 @@ STRIAE_FUNCTION(tensor_serialize) { return serialize<TensorState>(fcinfo, "tenso
 STRIAE_FUNCTION(tensor_deserialize) { return deserialize<TensorState>(fcinfo, "tensor_deserialize"); }
 
 namespace {
-FabricResult fabric_of(FunctionCallInfo fcinfo) {
-  const TensorState *s = reinterpret_cast<const TensorState *>(PG_GETARG_POINTER(0));
-  return guarded([&] { return tensor_result(*s); });
+// The fabric of a non-NULL tensor state (argument 0, kind checked).
+FabricResult fabric_of(const Tagged<TensorState> *t) {
+  return guarded([&] { return tensor_result(t->s); });
 }
 }  // namespace
 
 STRIAE_FUNCTION(tensor_final) {
-  if (PG_ARGISNULL(0)) PG_RETURN_NULL();
-  const FabricResult r = fabric_of(fcinfo);
+  const Tagged<TensorState> *t = tagged_arg<TensorState>(fcinfo, 0, "tensor_final");
+  if (t == nullptr) PG_RETURN_NULL();
+  const FabricResult r = fabric_of(t);
   if (r.n == 0) PG_RETURN_NULL();
   // e1, e2, e3, s1, s2, s3, woodcock_k, woodcock_c, point, girdle, random, n
   Datum v[12] = {line_datum(r.e1), line_datum(r.e2), line_datum(r.e3), Float8GetDatum(r.s1),
@@ -170,15 +194,17 @@ STRIAE_FUNCTION(tensor_final) {
 }
 
 STRIAE_FUNCTION(mean_plane_final) {
-  if (PG_ARGISNULL(0)) PG_RETURN_NULL();
-  const FabricResult r = fabric_of(fcinfo);
+  const Tagged<TensorState> *t = tagged_arg<TensorState>(fcinfo, 0, "mean_plane_final");
+  if (t == nullptr) PG_RETURN_NULL();
+  const FabricResult r = fabric_of(t);
   if (!r.mean_plane_valid) PG_RETURN_NULL();
   return result(r.mean_plane);
 }
 
 STRIAE_FUNCTION(fold_axis_final) {
-  if (PG_ARGISNULL(0)) PG_RETURN_NULL();
-  const FabricResult r = fabric_of(fcinfo);
+  const Tagged<TensorState> *t = tagged_arg<TensorState>(fcinfo, 0, "fold_axis_final");
+  if (t == nullptr) PG_RETURN_NULL();
+  const FabricResult r = fabric_of(t);
   if (!r.fold_axis_valid) PG_RETURN_NULL();
   return result(r.fold_axis);
 }
@@ -194,6 +220,7 @@ STRIAE_FUNCTION(fold_axis_final) {
 namespace {
 
 struct DensityAgg {
+  StateTag tag;  // StateKind::Density
   double spacing;
   size_t m;    // entries in use
   size_t cap;  // capacity
@@ -203,10 +230,10 @@ struct DensityAgg {
 static_assert(std::is_trivially_destructible<DensityAgg>::value, "palloc'd state");
 
 constexpr size_t kDensityInitialCap = 1024;
-constexpr uint32 kDensityMagic = 0x53444e31;  // "SDN1"
 
 DensityAgg *density_new(MemoryContext ctx, double spacing, size_t cap) {
   DensityAgg *a = static_cast<DensityAgg *>(MemoryContextAlloc(ctx, sizeof(DensityAgg)));
+  a->tag = state_tag(StateKind::Density);
   a->spacing = spacing;
   a->m = 0;
   a->cap = cap;
@@ -223,7 +250,8 @@ void check_spacing(double spacing) { guarded([&] { check_grid_spacing(spacing); 
 
 Datum density_accum(FunctionCallInfo fcinfo, bool is_plane) {
   MemoryContext ctx = agg_context(fcinfo, "density_grid");
-  DensityAgg *a = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<DensityAgg *>(PG_GETARG_POINTER(0));
+  DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, is_plane ? "density_plane_accum" : "density_lineation_accum",
+                                        StateKind::Density);
   if (PG_ARGISNULL(2))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("density_grid spacing must not be NULL")));
   const double spacing = PG_GETARG_FLOAT8(2);
@@ -258,8 +286,8 @@ STRIAE_FUNCTION(density_plane_accum) { return density_accum(fcinfo, true); }
 
 STRIAE_FUNCTION(density_combine) {
   MemoryContext ctx = agg_context(fcinfo, "density_combine");
-  DensityAgg *a = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<DensityAgg *>(PG_GETARG_POINTER(0));
-  DensityAgg *b = PG_ARGISNULL(1) ? nullptr : reinterpret_cast<DensityAgg *>(PG_GETARG_POINTER(1));
+  DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_combine", StateKind::Density);
+  DensityAgg *b = state_arg<DensityAgg>(fcinfo, 1, "density_combine", StateKind::Density);
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -285,18 +313,11 @@ STRIAE_FUNCTION(density_combine) {
 
 STRIAE_FUNCTION(density_serialize) {
   agg_context(fcinfo, "density_serialize");
-  DensityAgg *a = reinterpret_cast<DensityAgg *>(PG_GETARG_POINTER(0));
+  DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_serialize", StateKind::Density);
   density_compact(a);
-  const Size size = VARHDRSZ + 4 + 8 + 8 + a->m * (sizeof(uint32_t) + sizeof(uint64_t));
-  bytea *out = static_cast<bytea *>(palloc(size));
-  SET_VARSIZE(out, size);
-  char *p = VARDATA(out);
-  const uint64 m = a->m;
-  std::memcpy(p, &kDensityMagic, 4);
-  std::memcpy(p + 4, &a->spacing, 8);
-  std::memcpy(p + 12, &m, 8);
-  std::memcpy(p + 20, a->ids, sizeof(uint32_t) * m);
-  std::memcpy(p + 20 + sizeof(uint32_t) * m, a->counts, sizeof(uint64_t) * m);
+  bytea *out = bytea_alloc(density_serial_size(a->m));
+  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
+  guarded([&] { write_density_state(a->spacing, a->ids, a->counts, a->m, p); });
   PG_RETURN_BYTEA_P(out);
 }
 
@@ -304,29 +325,17 @@ STRIAE_FUNCTION(density_deserialize) {
   MemoryContext ctx = agg_context(fcinfo, "density_deserialize");
   bytea *in = PG_GETARG_BYTEA_PP(0);
   const size_t len = VARSIZE_ANY_EXHDR(in);
-  const char *p = VARDATA_ANY(in);
-  uint32 magic = 0;
-  uint64 m = 0;
-  double spacing = 0;
-  if (len >= 20) {
-    std::memcpy(&magic, p, 4);
-    std::memcpy(&spacing, p + 4, 8);
-    std::memcpy(&m, p + 12, 8);
-  }
-  if (magic != kDensityMagic || m > (1u << 24) || len != 20 + m * (sizeof(uint32_t) + sizeof(uint64_t)))
-    ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("density_deserialize: not a serialized density_grid state")));
-  check_spacing(spacing);
-  DensityAgg *a = density_new(ctx, spacing, Max(static_cast<size_t>(m), kDensityInitialCap));
-  std::memcpy(a->ids, p + 20, sizeof(uint32_t) * m);
-  std::memcpy(a->counts, p + 20 + sizeof(uint32_t) * m, sizeof(uint64_t) * m);
-  a->m = m;
-  guarded([&] { validate_bins(a->ids, a->counts, a->m); });
+  const unsigned char *p = bytea_bytes(in);
+  const DensitySerial h = guarded([&] { return read_density_header(p, len, "density_deserialize"); });
+  DensityAgg *a = density_new(ctx, h.spacing, Max(static_cast<size_t>(h.m), kDensityInitialCap));
+  guarded([&] { read_density_bins(p, len, h, a->ids, a->counts, "density_deserialize"); });
+  a->m = h.m;
   PG_RETURN_POINTER(a);
 }
 
 STRIAE_FUNCTION(density_final) {
-  if (PG_ARGISNULL(0)) PG_RETURN_NULL();
-  DensityAgg *a = reinterpret_cast<DensityAgg *>(PG_GETARG_POINTER(0));
+  DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_final", StateKind::Density);
+  if (a == nullptr) PG_RETURN_NULL();
   density_compact(a);
   if (a->m == 0) PG_RETURN_NULL();  // only NULL rows
   const uint64_t n = guarded([&] { return bins_total(a->counts, a->m); });

@@ -6,6 +6,7 @@
 //
 // Text form of stress_tensor: see src/core/stress_text.hpp (parsed there,
 // printed here with float8out_internal so it follows extra_float_digits).
+#include "agg.hpp"
 #include "grid.hpp"
 
 #include "../core/bootstrap.hpp"
@@ -274,88 +275,91 @@ SlipDatum slip_datum(FunctionCallInfo fcinfo, int k) {
   return guarded([&] { return striae::slip_datum(f); });
 }
 
-[[noreturn]] void bad_serial(const char *fn) {
-  ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: not a serialized state of this aggregate", fn)));
-  pg_unreachable();
-}
-
 // ---- stress_inversion(fault_slip): normal equations (Michael 1984) -----------------------------
 
-constexpr uint32 kStressMagic = 0x53535431;  // "SST1"
+// In memory: the kind tag and the core's normal equations.
+struct StressAgg {
+  StateTag tag;  // StateKind::StressLinear
+  StressAccum s;
+};
+static_assert(std::is_trivially_destructible<StressAgg>::value, "palloc'd state");
 
-StressAccum *stress_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<StressAccum *>(PG_GETARG_POINTER(k));
+StressAgg *stress_new(MemoryContext ctx) {
+  StressAgg *a = static_cast<StressAgg *>(MemoryContextAlloc(ctx, sizeof(StressAgg)));
+  a->tag = state_tag(StateKind::StressLinear);
+  return a;
+}
+
+StressAgg *stress_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<StressAgg>(fcinfo, k, fn, StateKind::StressLinear);
 }
 
 }  // namespace
 
 STRIAE_FUNCTION(stress_inversion_accum) {
-  StressAccum *s = stress_state(fcinfo, 0);
-  if (s == nullptr) {
+  StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_accum");
+  if (a == nullptr) {
     // Checked when the state is created (see the statistics aggregates).
     MemoryContext ctx = agg_context(fcinfo, "stress_inversion_accum");
-    s = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
-    stress_init(*s);
+    a = stress_new(ctx);
+    stress_init(a->s);
   }
   if (!PG_ARGISNULL(1)) {
     const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
-    guarded([&] { stress_add_fault(*s, f); });
+    guarded([&] { stress_add_fault(a->s, f); });
   }
-  PG_RETURN_POINTER(s);
+  PG_RETURN_POINTER(a);
 }
 
 STRIAE_FUNCTION(stress_inversion_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_inversion_combine");
-  StressAccum *a = stress_state(fcinfo, 0), *b = stress_state(fcinfo, 1);
+  StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_combine");
+  StressAgg *b = stress_state(fcinfo, 1, "stress_inversion_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
   if (a == nullptr) {
-    a = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
-    std::memcpy(a, b, sizeof(StressAccum));
-    guarded([&] { stress_validate(*a); });
+    a = stress_new(ctx);
+    a->s = b->s;
+    guarded([&] { stress_validate(a->s); });
     PG_RETURN_POINTER(a);
   }
   guarded([&] {
-    stress_validate(*a);
-    stress_validate(*b);
-    stress_combine(*a, *b);
+    stress_validate(a->s);
+    stress_validate(b->s);
+    stress_combine(a->s, b->s);
   });
   PG_RETURN_POINTER(a);
 }
 
 STRIAE_FUNCTION(stress_inversion_serialize) {
   agg_context(fcinfo, "stress_inversion_serialize");
-  const StressAccum *s = reinterpret_cast<const StressAccum *>(PG_GETARG_POINTER(0));
-  guarded([&] { stress_validate(*s); });
-  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(StressAccum)));
-  SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(StressAccum));
-  std::memcpy(VARDATA(out), &kStressMagic, 4);
-  std::memcpy(VARDATA(out) + 4, s, sizeof(StressAccum));
+  const StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_serialize");
+  bytea *out = bytea_alloc(kStressSerialSize);
+  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
+  guarded([&] { write_stress_state(a->s, p); });
   PG_RETURN_BYTEA_P(out);
 }
 
 STRIAE_FUNCTION(stress_inversion_deserialize) {
   MemoryContext ctx = agg_context(fcinfo, "stress_inversion_deserialize");
   bytea *in = PG_GETARG_BYTEA_PP(0);
-  uint32 magic = 0;
-  if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(StressAccum)) std::memcpy(&magic, VARDATA_ANY(in), 4);
-  if (magic != kStressMagic) bad_serial("stress_inversion_deserialize");
-  StressAccum *s = static_cast<StressAccum *>(MemoryContextAlloc(ctx, sizeof(StressAccum)));
-  std::memcpy(s, VARDATA_ANY(in) + 4, sizeof(StressAccum));
-  guarded([&] { stress_validate(*s); });
-  PG_RETURN_POINTER(s);
+  StressAgg *a = stress_new(ctx);
+  const unsigned char *p = bytea_bytes(in);
+  const size_t n = VARSIZE_ANY_EXHDR(in);
+  guarded([&] { read_stress_state(p, n, a->s, "stress_inversion_deserialize"); });
+  PG_RETURN_POINTER(a);
 }
 
 // NULL for an empty group, too few data or a degenerate set (stress.hpp, StressStatus).
 STRIAE_FUNCTION(stress_inversion_final) {
-  const StressAccum *s = stress_state(fcinfo, 0);
-  if (s == nullptr) PG_RETURN_NULL();
+  const StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_final");
+  if (a == nullptr) PG_RETURN_NULL();
   StressTensor t{};
   const StressStatus st = guarded([&] {
-    stress_validate(*s);
-    return stress_finalise(*s, t);
+    stress_validate(a->s);
+    return stress_finalise(a->s, t);
   });
   if (st != StressStatus::Ok) PG_RETURN_NULL();
   return result(t);
@@ -369,12 +373,8 @@ STRIAE_FUNCTION(stress_inversion_final) {
 
 namespace {
 
-constexpr uint32 kDihedraMagic = 0x53524432;  // "SRD2": counts in half data since 0.2.0
-// Largest node count we accept from a serialized state before dihedra_validate
-// (spacing 0.5 gives about 1.7e5 nodes; this is a generous bound on the length).
-constexpr int32 kDihedraMaxNodes = 1 << 22;
-
 struct DihedraAgg {
+  StateTag tag;  // StateKind::RightDihedra
   DihedraHeader h;
   int64_t counts[FLEXIBLE_ARRAY_MEMBER];
 };
@@ -383,6 +383,7 @@ static_assert(std::is_trivially_destructible<DihedraHeader>::value, "palloc'd st
 DihedraAgg *dihedra_new(MemoryContext ctx, const DihedraHeader &h) {
   const Size size = offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(h.node_count);
   DihedraAgg *a = static_cast<DihedraAgg *>(MemoryContextAllocZero(ctx, size));
+  a->tag = state_tag(StateKind::RightDihedra);
   a->h = h;
   return a;
 }
@@ -405,8 +406,8 @@ const double *dihedra_nodes(double spacing) {
   return table.data();
 }
 
-DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<DihedraAgg *>(PG_GETARG_POINTER(k));
+DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<DihedraAgg>(fcinfo, k, fn, StateKind::RightDihedra);
 }
 
 [[noreturn]] void dihedra_spacing_mismatch() {
@@ -419,7 +420,7 @@ DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k) {
 
 STRIAE_FUNCTION(right_dihedra_accum) {
   MemoryContext ctx = agg_context(fcinfo, "right_dihedra_accum");
-  DihedraAgg *a = dihedra_state(fcinfo, 0);
+  DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_accum");
   if (PG_ARGISNULL(2))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("right_dihedra spacing must not be NULL")));
   const double spacing = PG_GETARG_FLOAT8(2);
@@ -438,7 +439,8 @@ STRIAE_FUNCTION(right_dihedra_accum) {
 
 STRIAE_FUNCTION(right_dihedra_combine) {
   MemoryContext ctx = agg_context(fcinfo, "right_dihedra_combine");
-  DihedraAgg *a = dihedra_state(fcinfo, 0), *b = dihedra_state(fcinfo, 1);
+  DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_combine");
+  DihedraAgg *b = dihedra_state(fcinfo, 1, "right_dihedra_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -460,39 +462,27 @@ STRIAE_FUNCTION(right_dihedra_combine) {
 
 STRIAE_FUNCTION(right_dihedra_serialize) {
   agg_context(fcinfo, "right_dihedra_serialize");
-  const DihedraAgg *a = reinterpret_cast<const DihedraAgg *>(PG_GETARG_POINTER(0));
-  guarded([&] { dihedra_validate(a->h, a->counts); });
-  const Size n = dihedra_size(a);
-  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + n));
-  SET_VARSIZE(out, VARHDRSZ + 4 + n);
-  std::memcpy(VARDATA(out), &kDihedraMagic, 4);
-  std::memcpy(VARDATA(out) + 4, a, n);
+  const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_serialize");
+  bytea *out = bytea_alloc(dihedra_serial_size(a->h));
+  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
+  guarded([&] { write_dihedra_state(a->h, a->counts, p); });
   PG_RETURN_BYTEA_P(out);
 }
 
 STRIAE_FUNCTION(right_dihedra_deserialize) {
   MemoryContext ctx = agg_context(fcinfo, "right_dihedra_deserialize");
   bytea *in = PG_GETARG_BYTEA_PP(0);
-  const Size len = VARSIZE_ANY_EXHDR(in);
-  const char *p = VARDATA_ANY(in);
-  uint32 magic = 0;
-  DihedraHeader h{};
-  if (len >= 4 + sizeof(DihedraHeader)) {
-    std::memcpy(&magic, p, 4);
-    std::memcpy(&h, p + 4, sizeof(DihedraHeader));
-  }
-  if (magic != kDihedraMagic || h.node_count < 0 || h.node_count > kDihedraMaxNodes ||
-      len != 4 + offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(h.node_count))
-    bad_serial("right_dihedra_deserialize");
+  const size_t len = VARSIZE_ANY_EXHDR(in);
+  const unsigned char *p = bytea_bytes(in);
+  const DihedraHeader h = guarded([&] { return read_dihedra_header(p, len, "right_dihedra_deserialize"); });
   DihedraAgg *a = dihedra_new(ctx, h);
-  std::memcpy(a, p + 4, len - 4);
-  guarded([&] { dihedra_validate(a->h, a->counts); });
+  guarded([&] { read_dihedra_counts(p, len, h, a->counts, "right_dihedra_deserialize"); });
   PG_RETURN_POINTER(a);
 }
 
 // NULL for an empty group (or only NULL rows).
 STRIAE_FUNCTION(right_dihedra_final) {
-  const DihedraAgg *a = dihedra_state(fcinfo, 0);
+  const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
   if (a == nullptr || a->h.data_count == 0) PG_RETURN_NULL();
   guarded([&] { dihedra_validate(a->h, a->counts); });
   GridDatum *g = grid_alloc(GridKind::RightDihedra, a->h.spacing, a->h.data_count, a->h.node_count);
@@ -511,17 +501,14 @@ STRIAE_FUNCTION(right_dihedra_final) {
 
 namespace {
 
-constexpr uint32 kKeepMagic = 0x53534b31;  // "SSK1"
-constexpr int32 kKeepBootstrap = 1;
-constexpr int32 kKeepFocal = 2;
-constexpr int32 kKeepFocalBootstrap = 3;  // focal joint inversion with bootstrap
 constexpr int64 kKeepInitialCap = 64;
 // Default friction search of focal_stress_inversion(fault_slip): striae's choice,
 // covering the usual range of fault friction (common practice, no source).
 constexpr double kFocalMuMin = 0.2, kFocalMuMax = 1.0, kFocalMuStep = 0.1;
 
 struct KeepAgg {
-  int32 kind;       // kKeepBootstrap, kKeepFocal or kKeepFocalBootstrap
+  StateTag tag;     // keep_state_kind(kind)
+  int32 kind;       // kKeepBootstrap, kKeepFocal or kKeepFocalBootstrap (agg_state.hpp)
   int32 resamples;  // bootstraps
   int64 seed;       // bootstraps
   double friction;  // focal: fixed value, or 0 = default search
@@ -530,10 +517,10 @@ struct KeepAgg {
   SlipDatum *data;
 };
 static_assert(std::is_trivially_destructible<KeepAgg>::value, "palloc'd state");
-constexpr Size kKeepHeader = 4 + 4 + 4 + 8 + 8 + 8;  // magic kind resamples seed friction count
 
 KeepAgg *keep_new(MemoryContext ctx, int32 kind, int32 resamples, int64 seed, double friction, int64 cap) {
   KeepAgg *a = static_cast<KeepAgg *>(MemoryContextAlloc(ctx, sizeof(KeepAgg)));
+  a->tag = state_tag(guarded([&] { return keep_state_kind(kind); }));
   a->kind = kind;
   a->resamples = resamples;
   a->seed = seed;
@@ -544,8 +531,20 @@ KeepAgg *keep_new(MemoryContext ctx, int32 kind, int32 resamples, int64 seed, do
   return a;
 }
 
-KeepAgg *keep_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<KeepAgg *>(PG_GETARG_POINTER(k));
+// State argument k of one keep kind.
+KeepAgg *keep_state(FunctionCallInfo fcinfo, int k, const char *fn, StateKind kind) {
+  return state_arg<KeepAgg>(fcinfo, k, fn, kind);
+}
+
+// State argument k of any keep kind (combine, serialize).
+KeepAgg *keep_state_any(FunctionCallInfo fcinfo, int k, const char *fn) {
+  StateKind found;
+  return state_arg<KeepAgg>(fcinfo, k, fn,
+                            {StateKind::KeepBootstrap, StateKind::KeepFocal, StateKind::KeepFocalBootstrap}, found);
+}
+
+KeepParams keep_params(const KeepAgg *a) {
+  return KeepParams{a->kind, a->resamples, a->seed, a->friction, a->count};
 }
 
 [[noreturn]] void too_many_data() {
@@ -581,27 +580,17 @@ void keep_same(const KeepAgg *a, int32 resamples, int64 seed, double friction, c
 
 void keep_validate(const KeepAgg *a) {
   guarded([&] {
-    if (a->kind != kKeepBootstrap && a->kind != kKeepFocal && a->kind != kKeepFocalBootstrap)
-      throw Error(ErrorKind::BadState, "invalid stress inversion state: unknown kind");
-    if (a->count < 0 || a->count > a->cap || a->count > static_cast<int64>(kMaxBootstrapData))
-      throw Error(ErrorKind::BadState, "invalid stress inversion state: bad count");
-    if (a->kind == kKeepBootstrap || a->kind == kKeepFocalBootstrap) {
-      BootstrapOptions o;
-      o.resamples = a->resamples;
-      o.seed = static_cast<uint64_t>(a->seed);
-      check_bootstrap_options(o);
-    }
-    if (a->kind != kKeepBootstrap && a->friction != 0) check_friction(a->friction);
-    for (int64 i = 0; i < a->count; ++i) check_slip_datum(a->data[i].n, a->data[i].u);
+    check_keep_params(keep_params(a));
+    if (a->count > a->cap) throw Error(ErrorKind::BadState, "invalid stress inversion state: bad count");
+    check_keep_data(a->data, a->count);
   });
 }
-
 
 }  // namespace
 
 STRIAE_FUNCTION(stress_bootstrap_accum) {
   MemoryContext ctx = agg_context(fcinfo, "stress_bootstrap_accum");
-  KeepAgg *a = keep_state(fcinfo, 0);
+  KeepAgg *a = keep_state(fcinfo, 0, "stress_bootstrap_accum", StateKind::KeepBootstrap);
   if (PG_ARGISNULL(2) || PG_ARGISNULL(3))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("stress_inversion resamples and seed must not be NULL")));
   const int32 resamples = PG_GETARG_INT32(2);
@@ -624,7 +613,8 @@ STRIAE_FUNCTION(stress_bootstrap_accum) {
 namespace {
 Datum focal_accum(FunctionCallInfo fcinfo, bool fixed) {
   MemoryContext ctx = agg_context(fcinfo, "focal_stress_inversion_accum");
-  KeepAgg *a = keep_state(fcinfo, 0);
+  KeepAgg *a = keep_state(fcinfo, 0, fixed ? "focal_stress_inversion_friction_accum" : "focal_stress_inversion_accum",
+                          StateKind::KeepFocal);
   if (fixed && PG_ARGISNULL(2))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("focal_stress_inversion friction must not be NULL")));
   const double mu = fixed ? PG_GETARG_FLOAT8(2) : 0.0;
@@ -645,7 +635,7 @@ STRIAE_FUNCTION(focal_stress_inversion_accum) { return focal_accum(fcinfo, false
 // means the default search; resamples and seed must be given.
 STRIAE_FUNCTION(focal_bootstrap_accum) {
   MemoryContext ctx = agg_context(fcinfo, "focal_bootstrap_accum");
-  KeepAgg *a = keep_state(fcinfo, 0);
+  KeepAgg *a = keep_state(fcinfo, 0, "focal_bootstrap_accum", StateKind::KeepFocalBootstrap);
   if (PG_ARGISNULL(3) || PG_ARGISNULL(4))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED),
                     errmsg("focal_stress_inversion resamples and seed must not be NULL")));
@@ -671,7 +661,8 @@ STRIAE_FUNCTION(focal_stress_inversion_friction_accum) { return focal_accum(fcin
 
 STRIAE_FUNCTION(stress_keep_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_keep_combine");
-  KeepAgg *a = keep_state(fcinfo, 0), *b = keep_state(fcinfo, 1);
+  KeepAgg *a = keep_state_any(fcinfo, 0, "stress_keep_combine");
+  KeepAgg *b = keep_state_any(fcinfo, 1, "stress_keep_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -681,8 +672,7 @@ STRIAE_FUNCTION(stress_keep_combine) {
     a = keep_new(ctx, b->kind, b->resamples, b->seed, b->friction, b->count);
   } else {
     keep_validate(a);
-    if (a->kind != b->kind)
-      ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("stress_keep_combine: states of different aggregates")));
+    if (a->kind != b->kind) wrong_state_kind(b, "stress_keep_combine", {keep_state_kind(a->kind)});
     keep_same(a, b->resamples, b->seed, b->friction, "stress inversion");
   }
   keep_reserve(a, a->count + b->count);
@@ -693,52 +683,29 @@ STRIAE_FUNCTION(stress_keep_combine) {
 
 STRIAE_FUNCTION(stress_keep_serialize) {
   agg_context(fcinfo, "stress_keep_serialize");
-  const KeepAgg *a = reinterpret_cast<const KeepAgg *>(PG_GETARG_POINTER(0));
+  const KeepAgg *a = keep_state_any(fcinfo, 0, "stress_keep_serialize");
   keep_validate(a);
-  const Size size = VARHDRSZ + kKeepHeader + sizeof(SlipDatum) * a->count;
-  bytea *out = static_cast<bytea *>(palloc(size));
-  SET_VARSIZE(out, size);
-  char *p = VARDATA(out);
-  std::memcpy(p, &kKeepMagic, 4);
-  std::memcpy(p + 4, &a->kind, 4);
-  std::memcpy(p + 8, &a->resamples, 4);
-  std::memcpy(p + 12, &a->seed, 8);
-  std::memcpy(p + 20, &a->friction, 8);
-  std::memcpy(p + 28, &a->count, 8);
-  std::memcpy(p + kKeepHeader, a->data, sizeof(SlipDatum) * a->count);
+  bytea *out = bytea_alloc(keep_serial_size(a->count));
+  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
+  guarded([&] { write_keep_state(keep_params(a), a->data, p); });
   PG_RETURN_BYTEA_P(out);
 }
 
 STRIAE_FUNCTION(stress_keep_deserialize) {
   MemoryContext ctx = agg_context(fcinfo, "stress_keep_deserialize");
   bytea *in = PG_GETARG_BYTEA_PP(0);
-  const Size len = VARSIZE_ANY_EXHDR(in);
-  const char *p = VARDATA_ANY(in);
-  uint32 magic = 0;
-  int32 kind = 0, resamples = 0;
-  int64 seed = 0, count = -1;
-  double friction = 0;
-  if (len >= kKeepHeader) {
-    std::memcpy(&magic, p, 4);
-    std::memcpy(&kind, p + 4, 4);
-    std::memcpy(&resamples, p + 8, 4);
-    std::memcpy(&seed, p + 12, 8);
-    std::memcpy(&friction, p + 20, 8);
-    std::memcpy(&count, p + 28, 8);
-  }
-  if (magic != kKeepMagic || count < 0 || count > static_cast<int64>(kMaxBootstrapData) ||
-      len != kKeepHeader + sizeof(SlipDatum) * static_cast<Size>(count))
-    bad_serial("stress_keep_deserialize");
-  KeepAgg *a = keep_new(ctx, kind, resamples, seed, friction, count);
-  std::memcpy(a->data, p + kKeepHeader, sizeof(SlipDatum) * count);
-  a->count = count;
-  keep_validate(a);
+  const size_t len = VARSIZE_ANY_EXHDR(in);
+  const unsigned char *p = bytea_bytes(in);
+  const KeepParams h = guarded([&] { return read_keep_header(p, len, "stress_keep_deserialize"); });
+  KeepAgg *a = keep_new(ctx, h.kind, h.resamples, h.seed, h.friction, h.count);
+  guarded([&] { read_keep_data(p, len, h, a->data, "stress_keep_deserialize"); });
+  a->count = h.count;
   PG_RETURN_POINTER(a);
 }
 
 // Bootstrap inversion: NULL for an empty group, too few data or a degenerate set.
 STRIAE_FUNCTION(stress_bootstrap_final) {
-  KeepAgg *a = keep_state(fcinfo, 0);
+  KeepAgg *a = keep_state(fcinfo, 0, "stress_bootstrap_final", StateKind::KeepBootstrap);
   if (a == nullptr || a->count == 0) PG_RETURN_NULL();
   keep_validate(a);
   StressTensor t{};
@@ -755,7 +722,9 @@ STRIAE_FUNCTION(stress_bootstrap_final) {
 
 // Joint focal inversion: NULL for an empty group, too few mechanisms or a degenerate set.
 STRIAE_FUNCTION(focal_stress_inversion_final) {
-  KeepAgg *a = keep_state(fcinfo, 0);
+  StateKind kind;
+  KeepAgg *a = state_arg<KeepAgg>(fcinfo, 0, "focal_stress_inversion_final",
+                                  {StateKind::KeepFocal, StateKind::KeepFocalBootstrap}, kind);
   if (a == nullptr || a->count == 0) PG_RETURN_NULL();
   keep_validate(a);
   uint8_t *picked = static_cast<uint8_t *>(palloc(static_cast<Size>(a->count)));
