@@ -1,6 +1,7 @@
 #!/usr/bin/env bash
-# Install the Debian packages striae needs to build, test, run the demo and the
-# benchmarks. Idempotent; prints nothing when everything is present.
+# Install the Debian packages striae needs to build, test (clang and its
+# runtime for the libFuzzer harnesses; pgbench comes with postgresql-15), run the
+# demo and the benchmarks. Idempotent; prints nothing when everything is present.
 set -euo pipefail
 
 PACKAGES=(
@@ -8,6 +9,7 @@ PACKAGES=(
   postgresql-15 postgresql-client-15 postgresql-server-dev-15
   libeigen3-dev
   libgtest-dev
+  clang-14 libclang-rt-14-dev
   python3 python3-numpy python3-psycopg
 )
 

@@ -356,6 +356,10 @@ size_t merge_bins(const uint32_t *a_ids, const uint64_t *a_counts, size_t na,
       out_counts[o++] = add_count(a_counts[i++], b_counts[j++]);
     }
   }
+  // The same limit as validate_bins, so that a combined state can be
+  // serialized and read back (a fuzzed pair of valid states exceeded it).
+  if (bins_total(out_counts, o) > (uint64_t(1) << 53))
+    throw Error(ErrorKind::DataError, "too many rows for density_grid (limit 2^53)");
   return o;
 }
 

@@ -86,6 +86,7 @@ size_t compact_bins(uint32_t *ids, uint64_t *counts, size_t m);
 // which must have room for na + nb entries (never more than
 // density_bin_count() are used) and must not overlap the inputs. Returns the
 // output length. Integer addition, so combine order never changes the result.
+// DataError if the total count would exceed 2^53 (validate_bins' limit).
 size_t merge_bins(const uint32_t *a_ids, const uint64_t *a_counts, size_t na,
                   const uint32_t *b_ids, const uint64_t *b_counts, size_t nb,
                   uint32_t *out_ids, uint64_t *out_counts);

@@ -52,6 +52,8 @@ void dihedra_combine(DihedraHeader &into, int64_t *into_counts, const DihedraHea
                      const int64_t *from_counts) {
   if (into.spacing != from.spacing || into.node_count != from.node_count)
     throw Error(ErrorKind::InvalidParameter, "grid spacing must be the same for every row of a group");
+  if (into.data_count > kMaxDihedraData - from.data_count)
+    throw Error(ErrorKind::DataError, "too many data for right_dihedra (limit 2^53)");
   for (int32_t i = 0; i < into.node_count; ++i) into_counts[i] += from_counts[i];
   into.data_count += from.data_count;
 }
@@ -69,6 +71,7 @@ void dihedra_validate(const DihedraHeader &h, const int64_t *counts) {
   if (h.node_count != grid_node_count(h.spacing)) bad("node count does not match the spacing");
   if (h.reserved != 0) bad("reserved field is not zero");
   if (h.data_count < 0) bad("negative data count");
+  if (h.data_count > kMaxDihedraData) bad("data count exceeds 2^53");
   for (int32_t i = 0; i < h.node_count; ++i)
     if (counts[i] < 0 || counts[i] > 2 * h.data_count) bad("node count outside 0..2 data count");
 }

@@ -32,6 +32,9 @@ namespace striae {
 
 constexpr double kDihedraOnPlane = 1e-12;
 
+// Largest data count of a state (counts must convert to double exactly).
+constexpr int64_t kMaxDihedraData = int64_t(1) << 53;
+
 // Fixed part of the state; the glue stores node_count int64 counts right after it.
 struct DihedraHeader {
   double spacing;       // degrees, as check_grid_spacing accepts
@@ -61,12 +64,12 @@ void dihedra_add(DihedraHeader &h, int64_t *counts, const double *nodes, const d
                  const double u[3]);
 
 // into += from. InvalidParameter if the spacings differ (the spacing argument must
-// be the same on every row of a group).
+// be the same on every row of a group), DataError beyond kMaxDihedraData data.
 void dihedra_combine(DihedraHeader &into, int64_t *into_counts, const DihedraHeader &from,
                      const int64_t *from_counts);
 
 // BadState unless the spacing is valid, node_count matches it, reserved is 0,
-// data_count >= 0 and every (half) count is in 0..2 data_count.
+// 0 <= data_count <= kMaxDihedraData and every (half) count is in 0..2 data_count.
 void dihedra_validate(const DihedraHeader &h, const int64_t *counts);
 
 // percent[i] = 50 * counts[i] / data_count (node_count values). Returns false

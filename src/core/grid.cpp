@@ -184,7 +184,10 @@ void check_grid(GridKind kind, double spacing, int64_t n, const double *values, 
     throw Error(ErrorKind::DataError, "sphere_grid has " + std::to_string(count) +
                                           " values, but its spacing needs " +
                                           std::to_string(grid_node_count(spacing)));
-  if (n < 1) throw Error(ErrorKind::DataError, "sphere_grid data count must be at least 1");
+  // The bounds text input accepts (parse_grid_header): binary input must not
+  // accept a value that a dump could not restore (found by fuzzing).
+  if (n < 1 || n > (int64_t(1) << 53))
+    throw Error(ErrorKind::DataError, "sphere_grid data count must be from 1 to 2^53");
   for (size_t k = 0; k < count; ++k) {
     const double v = values[k];
     const bool ok = std::isfinite(v) && v >= 0 && (kind != GridKind::RightDihedra || v <= 100);

@@ -59,7 +59,8 @@ GridHeader parse_grid_header(const char *text);
 void parse_grid_values(const char *text, size_t at, double *out, size_t count);
 
 // Check a grid's header fields and values (binary input, stored values):
-// spacing valid, count matching, n >= 1, values finite and within the kind's range.
+// spacing valid, count matching, 1 <= n <= 2^53 (as text input), values finite
+// and within the kind's range.
 void check_grid(GridKind kind, double spacing, int64_t n, const double *values, size_t count);
 
 }  // namespace striae

@@ -482,6 +482,8 @@ void stress_add_fault(StressAccum &s, const FaultSlip &f) {
 
 // Parallel combine: plain sums.
 void stress_combine(StressAccum &into, const StressAccum &from) {
+  if (into.count > kMaxStressData - from.count)
+    throw Error(ErrorKind::DataError, "too many data for a stress inversion (limit 2^53)");
   into.count += from.count;
   for (int i = 0; i < 15; ++i) into.ata[i] += from.ata[i];
   for (int i = 0; i < 5; ++i) into.atu[i] += from.atu[i];
@@ -494,6 +496,7 @@ void stress_validate(const StressAccum &s) {
     throw Error(ErrorKind::BadState, std::string("invalid stress inversion state: ") + what);
   };
   if (s.count < 0) bad("negative count");
+  if (s.count > kMaxStressData) bad("count exceeds 2^53");
   for (double v : s.ata) if (!std::isfinite(v)) bad("non-finite sum");
   for (double v : s.atu) if (!std::isfinite(v)) bad("non-finite sum");
   if (!std::isfinite(s.uu)) bad("non-finite sum");
@@ -513,6 +516,19 @@ void stress_validate(const StressAccum &s) {
   // 1e-6 rather than kUnitTol: each datum may be off unit by kUnitTol, and sums round.
   if (trace > 4.0 * cnt * (1.0 + 1e-6)) bad("sums too large for the count");
   if (std::fabs(s.uu - cnt) > 1e-6 * cnt) bad("slip norms do not match the count");
+  // Cauchy-Schwarz on the sums over data: |sum a_k.a_l| <= sqrt(sum |a_k|^2 sum |a_l|^2)
+  // and |sum a_k.u| <= sqrt(sum |a_k|^2 sum u.u), with the same relative slack.
+  // Together with the trace this bounds every sum by a few times the count, so
+  // sums of valid states stay finite (a fuzzed state with an off-diagonal sum
+  // near 1e308 passed the older checks and combined into infinities).
+  for (int k = 0; k < 5; ++k) {
+    const double dk = s.ata[kTri[k][k]];
+    for (int l = k + 1; l < 5; ++l)
+      if (std::fabs(s.ata[kTri[k][l]]) > std::sqrt(dk * s.ata[kTri[l][l]]) * (1.0 + 1e-6) + 1e-12 * cnt)
+        bad("off-diagonal sum larger than its diagonal sums allow");
+    if (std::fabs(s.atu[k]) > std::sqrt(dk * s.uu) * (1.0 + 1e-6) + 1e-12 * cnt)
+      bad("right-hand side larger than its sums allow");
+  }
 }
 
 // Solve the normal equations (rules in the header).

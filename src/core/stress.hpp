@@ -255,6 +255,9 @@ constexpr double kStressNullLimit = 1e-12;
 // fault_vectors() returns always passes).
 void check_slip_datum(const double n[3], const double u[3]);
 
+// Largest data count of a state: counts must convert to double exactly.
+constexpr int64_t kMaxStressData = int64_t(1) << 53;
+
 void stress_init(StressAccum &s);
 // Add one datum (checked with check_slip_datum).
 void stress_add(StressAccum &s, const Vec3 &n, const Vec3 &u);
@@ -263,10 +266,12 @@ void stress_add(StressAccum &s, const Vec3 &n, const Vec3 &u);
 // be finite: DataError otherwise). The per-row path of stress_inversion.
 void stress_add_fault(StressAccum &s, const FaultSlip &f);
 // into += from; exact sums, so commutative, and associative up to rounding.
+// DataError if the count would exceed kMaxStressData.
 void stress_combine(StressAccum &into, const StressAccum &from);
-// BadState unless count >= 0, all fields finite, the empty state all zero, the
-// diagonal of A^T A >= 0, trace(A^T A) <= 4 count and sum u.u = count (both to
-// 1e-6 relative). (A datum adds sum_k |a_k|^2 <= sum_k |E_k n|^2 = 3 + n3^2 <= 4 to the trace.)
+// BadState unless 0 <= count <= kMaxStressData, all fields finite, the empty
+// state all zero, the diagonal of A^T A >= 0, trace(A^T A) <= 4 count, sum u.u =
+// count, and every off-diagonal and right-hand-side sum within the
+// Cauchy-Schwarz bound of its diagonal sums (all to 1e-6 relative). (A datum adds sum_k |a_k|^2 <= sum_k |E_k n|^2 = 3 + n3^2 <= 4 to the trace.)
 void stress_validate(const StressAccum &s);
 // Solve. On Ok, out holds the tensor with data_count set; mean misfit, cones and
 // Phi interval are undefined (the state does not keep the data: the glue can add
