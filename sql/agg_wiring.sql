@@ -29,7 +29,10 @@ INSERT INTO kinds VALUES
   ('dihedra', 'fault_slip, float8', 'f, 10', 'right_dihedra_accum', 'right_dihedra_combine', 'right_dihedra_serialize', 'right_dihedra_deserialize', 'right_dihedra_final'),
   ('bootstrap', 'fault_slip, integer, bigint', 'f, 5, 1', 'stress_bootstrap_accum', 'stress_keep_combine', 'stress_keep_serialize', 'stress_keep_deserialize', 'stress_bootstrap_final'),
   ('focal', 'fault_slip, float8', 'f, 0.6', 'focal_stress_inversion_friction_accum', 'stress_keep_combine', 'stress_keep_serialize', 'stress_keep_deserialize', 'focal_stress_inversion_final'),
-  ('focal_bootstrap', 'fault_slip, float8, integer, bigint', 'f, 0.6, 5, 1', 'focal_bootstrap_accum', 'stress_keep_combine', 'stress_keep_serialize', 'stress_keep_deserialize', 'focal_stress_inversion_final');
+  ('focal_bootstrap', 'fault_slip, float8, integer, bigint', 'f, 0.6, 5, 1', 'focal_bootstrap_accum', 'stress_keep_combine', 'stress_keep_serialize', 'stress_keep_deserialize', 'focal_stress_inversion_final'),
+  ('phases', 'fault_slip, integer, bigint', 'f, 2, 1', 'stress_phases_accum', 'stress_phases_combine', 'stress_phases_serialize', 'stress_phases_deserialize', 'stress_phases_final'),
+  ('misfit', 'fault_slip, stress_tensor, float8', 'f, stress_tensor(''000/00''::lineation, ''090/00''::lineation, 0.5), 20', 'misfit_summary_accum', 'misfit_summary_combine', 'misfit_summary_serialize', 'misfit_summary_deserialize', 'misfit_summary_final'),
+  ('moment', 'fault_slip', 'f', 'moment_tensor_sum_accum', 'moment_tensor_sum_combine', 'moment_tensor_sum_serialize', 'moment_tensor_sum_deserialize', 'moment_tensor_sum_final');
 
 -- Create aggregate wiring.<name> of a kind with one support function replaced
 -- (role: finalfunc, combinefunc, serialfunc or deserialfunc), run it over the
@@ -53,7 +56,8 @@ SELECT k AS state, fn AS final_function, pg_temp.wired('final_' || k, k, 'finalf
   FROM (VALUES ('fisher', 'tensor_final'), ('tensor', 'fisher_final'), ('density', 'mean_plane_final'),
                ('stress', 'density_final'), ('dihedra', 'stress_inversion_final'),
                ('bootstrap', 'focal_stress_inversion_final'), ('focal', 'stress_bootstrap_final'),
-               ('focal_bootstrap', 'right_dihedra_final')) t(k, fn);
+               ('focal_bootstrap', 'right_dihedra_final'), ('phases', 'misfit_summary_final'),
+               ('misfit', 'moment_tensor_sum_final'), ('moment', 'stress_phases_final')) t(k, fn);
 -- A state that striae did not make: PostgreSQL's own array_agg state.
 CREATE AGGREGATE wiring.foreign_final(plane) (SFUNC = array_agg_transfn, STYPE = internal, FINALFUNC = fold_axis_final);
 SELECT pg_temp.err('SELECT wiring.foreign_final(p)::text FROM wiring.d');
@@ -76,17 +80,21 @@ SELECT k AS state, fn AS combine_function, pg_temp.wired('combine_' || k, k, 'co
   FROM (VALUES ('fisher', 'tensor_combine'), ('tensor', 'density_combine'), ('density', 'stress_inversion_combine'),
                ('stress', 'right_dihedra_combine'), ('dihedra', 'stress_keep_combine'),
                ('bootstrap', 'fisher_combine'), ('focal', 'tensor_combine'),
-               ('focal_bootstrap', 'stress_inversion_combine')) t(k, fn);
+               ('focal_bootstrap', 'stress_inversion_combine'), ('phases', 'misfit_summary_combine'),
+               ('misfit', 'moment_tensor_sum_combine'), ('moment', 'stress_phases_combine')) t(k, fn);
 SELECT k AS state, fn AS serialize_function, pg_temp.wired('serial_' || k, k, 'serialfunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_serialize'), ('tensor', 'stress_keep_serialize'), ('density', 'fisher_serialize'),
                ('stress', 'density_serialize'), ('dihedra', 'stress_inversion_serialize'),
                ('bootstrap', 'right_dihedra_serialize'), ('focal', 'tensor_serialize'),
-               ('focal_bootstrap', 'fisher_serialize')) t(k, fn);
+               ('focal_bootstrap', 'fisher_serialize'), ('phases', 'moment_tensor_sum_serialize'),
+               ('misfit', 'stress_phases_serialize'), ('moment', 'misfit_summary_serialize')) t(k, fn);
 -- a deserialize function handed another aggregate's serialized state
 SELECT k AS state, fn AS deserialize_function, pg_temp.wired('deserial_' || k, k, 'deserialfunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_deserialize'), ('tensor', 'density_deserialize'),
                ('density', 'stress_inversion_deserialize'), ('stress', 'right_dihedra_deserialize'),
-               ('dihedra', 'stress_keep_deserialize'), ('focal', 'fisher_deserialize')) t(k, fn);
+               ('dihedra', 'stress_keep_deserialize'), ('focal', 'fisher_deserialize'),
+               ('phases', 'misfit_summary_deserialize'), ('misfit', 'moment_tensor_sum_deserialize'),
+               ('moment', 'stress_phases_deserialize')) t(k, fn);
 RESET parallel_setup_cost;
 RESET parallel_tuple_cost;
 RESET min_parallel_table_scan_size;
@@ -122,6 +130,8 @@ BEGIN
                  'AS %L, %L LANGUAGE C', lib, 'stress_inversion_accum');
   EXECUTE format('CREATE FUNCTION wiring.focal_as_focal_bootstrap(internal, fault_slip, float8, integer, bigint) '
                  'RETURNS internal AS %L, %L LANGUAGE C', lib, 'focal_stress_inversion_friction_accum');
+  EXECUTE format('CREATE FUNCTION wiring.moment_as_misfit(internal, fault_slip, stress_tensor, float8) '
+                 'RETURNS internal AS %L, %L LANGUAGE C', lib, 'moment_tensor_sum_accum');
 END $$;
 SELECT inv AS transition_function, fwd AS state_from, pg_temp.moving('moving_' || n, args, call, fwd, inv, final) AS result
   FROM (VALUES
@@ -137,7 +147,12 @@ SELECT inv AS transition_function, fwd AS state_from, pg_temp.moving('moving_' |
     (10, 'plane, float8', 'p, 10', 'wiring.tensor_as_density', 'density_plane_accum', 'tensor_final'),
     (11, 'fault_slip, integer, bigint', 'f, 5, 1', 'wiring.stress_as_bootstrap', 'stress_bootstrap_accum', 'stress_inversion_final'),
     (12, 'fault_slip, float8, integer, bigint', 'f, 0.6, 5, 1', 'wiring.focal_as_focal_bootstrap', 'focal_bootstrap_accum',
-     'focal_stress_inversion_final')) t(n, args, call, fwd, inv, final);
+     'focal_stress_inversion_final'),
+    (13, 'fault_slip', 'f', 'stress_inversion_accum', 'moment_tensor_sum_accum', 'stress_inversion_final'),
+    (14, 'fault_slip, float8', 'f, 10', 'right_dihedra_accum', 'moment_tensor_sum_weighted_accum', 'right_dihedra_final'),
+    (15, 'fault_slip, integer, bigint', 'f, 5, 1', 'stress_bootstrap_accum', 'stress_phases_accum', 'stress_bootstrap_final'),
+    (16, 'fault_slip, stress_tensor, float8', 'f, stress_tensor(''000/00''::lineation, ''090/00''::lineation, 0.5), 20',
+     'wiring.moment_as_misfit', 'misfit_summary_accum', 'moment_tensor_sum_final')) t(n, args, call, fwd, inv, final);
 
 -- The backend is still alive and the real aggregates still work.
 SELECT (fisher_mean(l)).n, fold_axis(p) IS NOT NULL AS fold, stress_inversion(f) IS NOT NULL AS stress,

@@ -22,13 +22,16 @@ const char *state_kind_aggregates(StateKind k) {
     case StateKind::KeepBootstrap: return "stress_inversion(fault_slip, resamples, seed)";
     case StateKind::KeepFocal: return "focal_stress_inversion(fault_slip [, friction])";
     case StateKind::KeepFocalBootstrap: return "focal_stress_inversion(fault_slip, friction, resamples, seed)";
+    case StateKind::Phases: return "stress_phases";
+    case StateKind::MisfitSummary: return "misfit_summary";
+    case StateKind::MomentSum: return "moment_tensor_sum";
   }
   return "no striae aggregate";
 }
 
 namespace {
 
-bool known_kind(uint32_t k) { return k >= 1 && k <= 8; }
+bool known_kind(uint32_t k) { return k >= 1 && k <= 11; }
 
 }  // namespace
 

@@ -41,6 +41,9 @@ enum class StateKind : uint32_t {
   KeepBootstrap = 6,       // stress_inversion(fault_slip, resamples, seed)
   KeepFocal = 7,           // focal_stress_inversion(fault_slip [, friction])
   KeepFocalBootstrap = 8,  // focal_stress_inversion(fault_slip, friction, resamples, seed)
+  Phases = 9,              // stress_phases
+  MisfitSummary = 10,      // misfit_summary
+  MomentSum = 11,          // moment_tensor_sum
 };
 
 // The first 8 bytes of every in-memory aggregate state.

@@ -2,6 +2,7 @@
 // stress_phase (hard division into stress phases, src/core/phases.hpp),
 // misfit_summary, moment_tensor_sum and kostrov_strain_rate (src/core/moment.hpp).
 // Glue only: unpack, call src/core inside guarded(), pack.
+#include "agg.hpp"
 #include "datum.hpp"
 
 #include "../core/moment.hpp"
@@ -56,6 +57,7 @@ constexpr uint32 kPhaseMagic = 0x53504831;  // "SPH1"
 constexpr int64 kPhaseInitialCap = 64;
 
 struct PhaseAgg {
+  StateTag tag;  // StateKind::Phases
   int32 phases;
   int32 starts;
   int64 seed;
@@ -68,6 +70,7 @@ constexpr Size kPhaseHeader = 4 + 4 + 4 + 8 + 8;  // magic phases starts seed co
 
 PhaseAgg *phase_new(MemoryContext ctx, int32 phases, int32 starts, int64 seed, int64 cap) {
   PhaseAgg *a = static_cast<PhaseAgg *>(MemoryContextAlloc(ctx, sizeof(PhaseAgg)));
+  a->tag = state_tag(StateKind::Phases);
   a->phases = phases;
   a->starts = starts;
   a->seed = seed;
@@ -77,8 +80,8 @@ PhaseAgg *phase_new(MemoryContext ctx, int32 phases, int32 starts, int64 seed, i
   return a;
 }
 
-PhaseAgg *phase_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<PhaseAgg *>(PG_GETARG_POINTER(k));
+PhaseAgg *phase_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<PhaseAgg>(fcinfo, k, fn, StateKind::Phases);
 }
 
 void phase_reserve(PhaseAgg *a, int64 need) {
@@ -114,7 +117,7 @@ void phase_validate(const PhaseAgg *a) {
 
 Datum phases_accum(FunctionCallInfo fcinfo, bool with_starts) {
   MemoryContext ctx = agg_context(fcinfo, "stress_phases_accum");
-  PhaseAgg *a = phase_state(fcinfo, 0);
+  PhaseAgg *a = phase_state(fcinfo, 0, with_starts ? "stress_phases_starts_accum" : "stress_phases_accum");
   if (PG_ARGISNULL(2) || PG_ARGISNULL(3) || (with_starts && PG_ARGISNULL(4)))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED),
                     errmsg("stress_phases phases, seed and starts must not be NULL")));
@@ -148,6 +151,7 @@ constexpr uint32 kMisfitMagic = 0x534d5331;  // "SMS1"
 constexpr int64 kMaxMisfits = 10000000;
 
 struct MisfitAgg {
+  StateTag tag;  // StateKind::MisfitSummary
   double threshold;
   int64 undefined;
   int64 count;
@@ -159,6 +163,7 @@ constexpr Size kMisfitHeader = 4 + 8 + 8 + 8;  // magic threshold undefined coun
 
 MisfitAgg *misfit_new(MemoryContext ctx, double threshold, int64 cap) {
   MisfitAgg *a = static_cast<MisfitAgg *>(MemoryContextAlloc(ctx, sizeof(MisfitAgg)));
+  a->tag = state_tag(StateKind::MisfitSummary);
   a->threshold = threshold;
   a->undefined = 0;
   a->count = 0;
@@ -167,8 +172,8 @@ MisfitAgg *misfit_new(MemoryContext ctx, double threshold, int64 cap) {
   return a;
 }
 
-MisfitAgg *misfit_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<MisfitAgg *>(PG_GETARG_POINTER(k));
+MisfitAgg *misfit_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<MisfitAgg>(fcinfo, k, fn, StateKind::MisfitSummary);
 }
 
 void misfit_reserve(MisfitAgg *a, int64 need) {
@@ -198,23 +203,36 @@ void misfit_validate(const MisfitAgg *a) {
 
 constexpr uint32 kMomentMagic = 0x534d5431;  // "SMT1"
 
-MomentAccum *moment_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<MomentAccum *>(PG_GETARG_POINTER(k));
+// In memory: the kind tag and the core's sums.
+struct MomentAgg {
+  StateTag tag;  // StateKind::MomentSum
+  MomentAccum s;
+};
+static_assert(std::is_trivially_destructible<MomentAgg>::value, "palloc'd state");
+
+MomentAgg *moment_new(MemoryContext ctx) {
+  MomentAgg *a = static_cast<MomentAgg *>(MemoryContextAlloc(ctx, sizeof(MomentAgg)));
+  a->tag = state_tag(StateKind::MomentSum);
+  return a;
+}
+
+MomentAgg *moment_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<MomentAgg>(fcinfo, k, fn, StateKind::MomentSum);
 }
 
 Datum moment_accum(FunctionCallInfo fcinfo, bool weighted) {
-  MomentAccum *s = moment_state(fcinfo, 0);
-  if (s == nullptr) {
+  MomentAgg *a = moment_state(fcinfo, 0, weighted ? "moment_tensor_sum_weighted_accum" : "moment_tensor_sum_accum");
+  if (a == nullptr) {
     MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_accum");
-    s = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
-    moment_init(*s);
+    a = moment_new(ctx);
+    moment_init(a->s);
   }
   // A row without a mechanism, or (weighted) without a magnitude, is skipped.
-  if (PG_ARGISNULL(1) || (weighted && PG_ARGISNULL(2))) PG_RETURN_POINTER(s);
+  if (PG_ARGISNULL(1) || (weighted && PG_ARGISNULL(2))) PG_RETURN_POINTER(a);
   const FaultSlip f = *arg<FaultSlip>(fcinfo, 1);
   const double mw = weighted ? PG_GETARG_FLOAT8(2) : 0.0;
-  guarded([&] { moment_add(*s, f, weighted ? moment_from_magnitude(mw) : 1.0, weighted); });
-  PG_RETURN_POINTER(s);
+  guarded([&] { moment_add(a->s, f, weighted ? moment_from_magnitude(mw) : 1.0, weighted); });
+  PG_RETURN_POINTER(a);
 }
 
 }  // namespace
@@ -226,7 +244,8 @@ STRIAE_FUNCTION(stress_phases_starts_accum) { return phases_accum(fcinfo, true);
 
 STRIAE_FUNCTION(stress_phases_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_phases_combine");
-  PhaseAgg *a = phase_state(fcinfo, 0), *b = phase_state(fcinfo, 1);
+  PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_combine");
+  PhaseAgg *b = phase_state(fcinfo, 1, "stress_phases_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -246,7 +265,7 @@ STRIAE_FUNCTION(stress_phases_combine) {
 
 STRIAE_FUNCTION(stress_phases_serialize) {
   agg_context(fcinfo, "stress_phases_serialize");
-  const PhaseAgg *a = reinterpret_cast<const PhaseAgg *>(PG_GETARG_POINTER(0));
+  const PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_serialize");
   phase_validate(a);
   const Size size = VARHDRSZ + kPhaseHeader + sizeof(SlipDatum) * a->count;
   bytea *out = static_cast<bytea *>(palloc(size));
@@ -288,7 +307,7 @@ STRIAE_FUNCTION(stress_phases_deserialize) {
 
 // NULL for an empty group, fewer than 4 k data, or no eligible division (phases.hpp).
 STRIAE_FUNCTION(stress_phases_final) {
-  PhaseAgg *a = phase_state(fcinfo, 0);
+  PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_final");
   if (a == nullptr || a->count == 0) PG_RETURN_NULL();
   phase_validate(a);
   const Oid array_type = get_fn_expr_rettype(fcinfo->flinfo);
@@ -333,7 +352,7 @@ STRIAE_FUNCTION(stress_phase) {
 
 STRIAE_FUNCTION(misfit_summary_accum) {
   MemoryContext ctx = agg_context(fcinfo, "misfit_summary_accum");
-  MisfitAgg *a = misfit_state(fcinfo, 0);
+  MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_accum");
   if (PG_ARGISNULL(3))
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("misfit_summary threshold must not be NULL")));
   const double threshold = PG_GETARG_FLOAT8(3);
@@ -364,7 +383,8 @@ STRIAE_FUNCTION(misfit_summary_accum) {
 
 STRIAE_FUNCTION(misfit_summary_combine) {
   MemoryContext ctx = agg_context(fcinfo, "misfit_summary_combine");
-  MisfitAgg *a = misfit_state(fcinfo, 0), *b = misfit_state(fcinfo, 1);
+  MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_combine");
+  MisfitAgg *b = misfit_state(fcinfo, 1, "misfit_summary_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -387,7 +407,7 @@ STRIAE_FUNCTION(misfit_summary_combine) {
 
 STRIAE_FUNCTION(misfit_summary_serialize) {
   agg_context(fcinfo, "misfit_summary_serialize");
-  const MisfitAgg *a = reinterpret_cast<const MisfitAgg *>(PG_GETARG_POINTER(0));
+  const MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_serialize");
   misfit_validate(a);
   const Size size = VARHDRSZ + kMisfitHeader + sizeof(double) * a->count;
   bytea *out = static_cast<bytea *>(palloc(size));
@@ -429,7 +449,7 @@ STRIAE_FUNCTION(misfit_summary_deserialize) {
 // misfit_stats row: n, undefined, mean, median, above, threshold. NULL for an
 // empty group; mean and median NULL when no misfit is defined.
 STRIAE_FUNCTION(misfit_summary_final) {
-  MisfitAgg *a = misfit_state(fcinfo, 0);
+  MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_final");
   if (a == nullptr || (a->count == 0 && a->undefined == 0)) PG_RETURN_NULL();
   misfit_validate(a);
   MisfitSummary s{};
@@ -449,28 +469,29 @@ STRIAE_FUNCTION(moment_tensor_sum_weighted_accum) { return moment_accum(fcinfo, 
 
 STRIAE_FUNCTION(moment_tensor_sum_combine) {
   MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_combine");
-  MomentAccum *a = moment_state(fcinfo, 0), *b = moment_state(fcinfo, 1);
+  MomentAgg *a = moment_state(fcinfo, 0, "moment_tensor_sum_combine");
+  MomentAgg *b = moment_state(fcinfo, 1, "moment_tensor_sum_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
   if (a == nullptr) {
-    a = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
-    std::memcpy(a, b, sizeof(MomentAccum));
-    guarded([&] { moment_validate(*a); });
+    a = moment_new(ctx);
+    a->s = b->s;
+    guarded([&] { moment_validate(a->s); });
     PG_RETURN_POINTER(a);
   }
   guarded([&] {
-    moment_validate(*a);
-    moment_validate(*b);
-    moment_combine(*a, *b);
+    moment_validate(a->s);
+    moment_validate(b->s);
+    moment_combine(a->s, b->s);
   });
   PG_RETURN_POINTER(a);
 }
 
 STRIAE_FUNCTION(moment_tensor_sum_serialize) {
   agg_context(fcinfo, "moment_tensor_sum_serialize");
-  const MomentAccum *s = reinterpret_cast<const MomentAccum *>(PG_GETARG_POINTER(0));
+  const MomentAccum *s = &moment_state(fcinfo, 0, "moment_tensor_sum_serialize")->s;
   guarded([&] { moment_validate(*s); });
   bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(MomentAccum)));
   SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(MomentAccum));
@@ -485,16 +506,17 @@ STRIAE_FUNCTION(moment_tensor_sum_deserialize) {
   uint32 magic = 0;
   if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(MomentAccum)) std::memcpy(&magic, VARDATA_ANY(in), 4);
   if (magic != kMomentMagic) bad_serial("moment_tensor_sum_deserialize");
-  MomentAccum *s = static_cast<MomentAccum *>(MemoryContextAlloc(ctx, sizeof(MomentAccum)));
-  std::memcpy(s, VARDATA_ANY(in) + 4, sizeof(MomentAccum));
-  guarded([&] { moment_validate(*s); });
-  PG_RETURN_POINTER(s);
+  MomentAgg *a = moment_new(ctx);
+  std::memcpy(&a->s, VARDATA_ANY(in) + 4, sizeof(MomentAccum));
+  guarded([&] { moment_validate(a->s); });
+  PG_RETURN_POINTER(a);
 }
 
 // moment_summary row (60_analysis.sql); NULL for an empty group.
 STRIAE_FUNCTION(moment_tensor_sum_final) {
-  const MomentAccum *s = moment_state(fcinfo, 0);
-  if (s == nullptr) PG_RETURN_NULL();
+  const MomentAgg *a = moment_state(fcinfo, 0, "moment_tensor_sum_final");
+  if (a == nullptr) PG_RETURN_NULL();
+  const MomentAccum *s = &a->s;
   MomentSummary m{};
   const bool any = guarded([&] { return moment_finalise(*s, m); });
   if (!any) PG_RETURN_NULL();

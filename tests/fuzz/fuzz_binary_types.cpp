@@ -104,12 +104,17 @@ void tensor(Message &m) {
   if (t.flags & kStressHasCones) s += ", \"cones\": " + list(t.cone, 3);
   if (t.flags & kStressHasPhiInterval) s += ", \"phi_interval\": [" + fuzz::num(t.phi_lo) + ", " + fuzz::num(t.phi_hi) + "]";
   if (t.flags & kStressHasFriction) s += ", \"friction\": " + fuzz::num(t.friction);
-  if (t.flags & (kStressFocalJoint | kStressNotConverged)) {
-    s += ", \"flags\": [";
-    if (t.flags & kStressFocalJoint) s += "\"focal_joint\"";
-    if ((t.flags & kStressFocalJoint) && (t.flags & kStressNotConverged)) s += ", ";
-    if (t.flags & kStressNotConverged) s += "\"not_converged\"";
-    s += "]";
+  {
+    const struct {
+      uint32_t bit;
+      const char *name;
+    } names[] = {{kStressFocalJoint, kStressFlagFocal},
+                 {kStressNotConverged, kStressFlagNotConverged},
+                 {kStressFrictionAtLimit, kStressFlagFrictionAtLimit}};
+    std::string fl;
+    for (const auto &f : names)
+      if (t.flags & f.bit) fl += (fl.empty() ? "" : ", ") + std::string("\"") + f.name + "\"";
+    if (!fl.empty()) s += ", \"flags\": [" + fl + "]";
   }
   s += "}";
   StressTensor u;

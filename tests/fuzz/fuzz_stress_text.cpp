@@ -21,6 +21,20 @@ std::string list(const double *v, int n) {
   return s + "]";
 }
 
+// The "flags" entry as stress_tensor_out prints it (flags in bit order).
+std::string flag_list(uint32_t flags) {
+  const struct {
+    uint32_t bit;
+    const char *name;
+  } names[] = {{kStressFocalJoint, kStressFlagFocal},
+               {kStressNotConverged, kStressFlagNotConverged},
+               {kStressFrictionAtLimit, kStressFlagFrictionAtLimit}};
+  std::string s;
+  for (const auto &f : names)
+    if (flags & f.bit) s += (s.empty() ? "" : ", ") + std::string("\"") + f.name + "\"";
+  return s.empty() ? s : ", \"flags\": [" + s + "]";
+}
+
 // As stress_tensor_out (src/pg/stress.cpp) prints it.
 std::string print(const StressTensor &t) {
   const double c[6] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed};
@@ -32,13 +46,7 @@ std::string print(const StressTensor &t) {
     s += ", \"phi_interval\": " + list(v, 2);
   }
   if (t.flags & kStressHasFriction) s += ", \"friction\": " + fuzz::num(t.friction);
-  if (t.flags & (kStressFocalJoint | kStressNotConverged)) {
-    s += ", \"flags\": [";
-    if (t.flags & kStressFocalJoint) s += std::string("\"") + kStressFlagFocal + "\"";
-    if ((t.flags & kStressFocalJoint) && (t.flags & kStressNotConverged)) s += ", ";
-    if (t.flags & kStressNotConverged) s += std::string("\"") + kStressFlagNotConverged + "\"";
-    s += "]";
-  }
+  s += flag_list(t.flags);
   return s + "}";
 }
 
