@@ -247,7 +247,7 @@ void append_arc(DiscPath &path, const Arc &arc, Projection proj, double tol, boo
   for (int k = 1; k <= pieces; ++k) {
     const double b = k == pieces ? arc.phi1 : arc.phi0 + span * k / pieces;
     const XY pb = s.point(b), db = s.deriv(b);
-    fit(path, s, a, b, pa, da, pb, db, tol, 0);
+    fit(path, s, a, b, pa, da, pb, db, 0.85 * tol, 0);  // margin for the error between the samples
     a = b;
     pa = pb;
     da = db;

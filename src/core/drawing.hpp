@@ -95,7 +95,8 @@ using DiscPath = std::vector<PathSeg>;
 
 // Append an arc's image as cubic Bezier segments (Hermite: end points and end
 // tangents of the true curve), split until the cubic is within tol of the
-// curve at seven parameters per segment (tol in disc units: 0.1 px at a net
+// curve at seven parameters per segment, to 0.85 tol so that the error between
+// them stays within tol (tol in disc units: 0.1 px at a net
 // radius of R px is 0.1 / R). start: begin with a Move to the arc's first point.
 void append_arc(DiscPath &path, const Arc &arc, Projection proj, double tol, bool start);
 // Append a closed ring (Move, its edges, Close).

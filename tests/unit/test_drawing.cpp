@@ -132,15 +132,15 @@ TEST(Drawing, GreatAndSmallCirclesWithinTolerance) {
         XY cur = path[0].p[0];
         drawn.push_back(cur);
         for (size_t k = 1; k < path.size(); ++k) {
-          for (int j = 1; j <= 24; ++j) drawn.push_back(bezier(cur, path[k].p[0], path[k].p[1], path[k].p[2], j / 24.0));
+          for (int j = 1; j <= 48; ++j) drawn.push_back(bezier(cur, path[k].p[0], path[k].p[1], path[k].p[2], j / 48.0));
           cur = path[k].p[2];
         }
         std::vector<XY> truth;
-        for (int j = 0; j <= 1500; ++j)
-          truth.push_back(project(arc.at(arc.phi0 + (arc.phi1 - arc.phi0) * j / 1500.0), p));
+        for (int j = 0; j <= 3000; ++j)
+          truth.push_back(project(arc.at(arc.phi0 + (arc.phi1 - arc.phi0) * j / 3000.0), p));
         double worst = 0;
         for (const XY &q : truth) worst = std::max(worst, poly_dist(q, drawn));
-        for (size_t j = 0; j < drawn.size(); j += 3) worst = std::max(worst, poly_dist(drawn[j], truth));
+        for (size_t j = 0; j < drawn.size(); j += 5) worst = std::max(worst, poly_dist(drawn[j], truth));
         EXPECT_LT(worst, tol) << "arc " << i;
       }
     }
