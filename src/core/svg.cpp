@@ -146,13 +146,14 @@ SvgWriter &SvgWriter::path_data(const DiscPath &path) {
       }
       case PathSeg::Rim: {
         const int64_t x = to_hundredths(px(s.p[0])), y = to_hundredths(py(s.p[0]));
-        // Counter-clockwise in the disc is clockwise on screen (y down):
-        // SVG's sweep flag 1.
+        // Counter-clockwise in the disc (y north) is counter-clockwise on
+        // screen too, which in SVG's y-down frame is the negative-angle
+        // direction: sweep flag 0.
         out += 'A';
         num(r);
         out += ' ';
         num(r);
-        out += s.sweep > 0 ? " 0 0 1 " : " 0 0 0 ";
+        out += s.sweep > 0 ? " 0 0 0 " : " 0 0 1 ";
         hundredths(x);
         out += ' ';
         hundredths(y);
