@@ -268,7 +268,7 @@ std::vector<LegendEntry> wrap_legend(const std::vector<LegendEntry> &in, size_t 
     std::string rest = e.text;
     bool first = true;
     while (!rest.empty()) {
-      size_t cut = rest.size();
+      size_t cut;
       if (text_length(rest) > max_chars) {
         // byte offset of the max_chars-th code point
         size_t limit = 0, chars = 0;
@@ -279,21 +279,29 @@ std::vector<LegendEntry> wrap_legend(const std::vector<LegendEntry> &in, size_t 
         }
         const std::string sep = kDot;
         size_t at = rest.rfind(sep, limit);
-        if (at != std::string::npos && at > 0) {
-          cut = at + sep.size();
-        } else {
+        size_t skip = sep.size();  // the separator is dropped at a break
+        if (at == std::string::npos || at == 0) {
           at = rest.rfind(' ', limit);
-          cut = (at != std::string::npos && at > 0) ? at + 1 : limit;
+          skip = 1;
+          if (at == std::string::npos || at == 0) {
+            at = limit;
+            skip = 0;
+          }
         }
+        cut = at;
+        LegendEntry x = e;
+        if (!first) x.swatch = Swatch::None;
+        x.text = (first ? "" : "   ") + rest.substr(0, cut);
+        out.push_back(x);
+        rest = rest.substr(cut + skip);
+        first = false;
+        continue;
       }
       LegendEntry x = e;
       if (!first) x.swatch = Swatch::None;
-      std::string line = rest.substr(0, cut);
-      while (!line.empty() && line.back() == ' ') line.pop_back();
-      x.text = (first ? "" : "   ") + line;
+      x.text = (first ? "" : "   ") + rest;
       out.push_back(x);
-      rest = rest.substr(cut);
-      first = false;
+      rest.clear();
     }
   }
   return out;

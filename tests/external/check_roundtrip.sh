@@ -33,16 +33,19 @@ echo "binary COPY: $bad mismatching rows of 2001"
 psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" <<'SQL'
 CREATE TABLE r AS
   SELECT i % 8 AS k, stress_inversion(f) AS s, stress_inversion(f, 20, i % 8) AS sb,
-         right_dihedra(f, 10) AS g, density_grid(l, 15) AS dg
+         right_dihedra(f, 10) AS g, density_grid(l, 15) AS dg,
+         net_label(net_faults(f), 'site ' || (i % 8)) || net_stress(stress_inversion(f, 20, i % 8))
+           || net_contours(right_dihedra(f, 10), '{10, 50}') || net_lines(l) AS fig
     FROM d WHERE i > 0 GROUP BY i % 8;
 SQL
 psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "\copy r TO '$W/r.bin' WITH (FORMAT binary)"
 psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "CREATE TABLE r2 (LIKE r)" -c "\copy r2 FROM '$W/r.bin' WITH (FORMAT binary)"
 bad=$(psql -X -q -At -d "$SRC" -c "SET extra_float_digits = 3" -c "SELECT count(*) FROM r FULL JOIN r2 USING (k)
   WHERE r.s::text IS DISTINCT FROM r2.s::text OR r.sb::text IS DISTINCT FROM r2.sb::text
-     OR r.g::text IS DISTINCT FROM r2.g::text OR r.dg::text IS DISTINCT FROM r2.dg::text")
-nulls=$(psql -X -q -At -d "$SRC" -c "SELECT count(*) FROM r WHERE s IS NULL OR sb IS NULL OR g IS NULL OR dg IS NULL")
-echo "binary COPY of stress_tensor and sphere_grid: $bad mismatching rows of 8 ($nulls with NULLs)"
+     OR r.g::text IS DISTINCT FROM r2.g::text OR r.dg::text IS DISTINCT FROM r2.dg::text
+     OR r.fig::text IS DISTINCT FROM r2.fig::text")
+nulls=$(psql -X -q -At -d "$SRC" -c "SELECT count(*) FROM r WHERE s IS NULL OR sb IS NULL OR g IS NULL OR dg IS NULL OR fig IS NULL")
+echo "binary COPY of stress_tensor, sphere_grid and net_figure: $bad mismatching rows of 8 ($nulls with NULLs)"
 [ "$bad" = 0 ] && [ "$nulls" = 0 ]
 # a corrupted binary value is rejected with a clean error (wrong version byte)
 psql -X -q -d "$SRC" -c "CREATE TABLE d3 (LIKE d)" >/dev/null
