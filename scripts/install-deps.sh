@@ -11,6 +11,9 @@ PACKAGES=(
   libgtest-dev
   clang-14 libclang-rt-14-dev
   python3 python3-numpy python3-psycopg
+  proj-bin                          # PROJ: reference for the net projections
+  chromium fonts-dejavu-core python3-pil   # figures rendered and sampled in a real browser
+  python3-matplotlib                # baseline of the figure benchmark
 )
 
 missing=()
