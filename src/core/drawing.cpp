@@ -234,23 +234,53 @@ void fit(DiscPath &path, const Sampler &s, double a, double b, const XY &pa, con
   path.push_back(seg);
 }
 
+// Error of the Hermite cubic on [a, b] (at seven parameters), or a value
+// above tol as soon as one sample exceeds it.
+double hermite_error(const Sampler &s, double a, double b, const XY &pa, const XY &da, const XY &pb,
+                     const XY &db, double tol) {
+  const double h = b - a;
+  const XY c1{pa.x + da.x * h / 3, pa.y + da.y * h / 3};
+  const XY c2{pb.x - db.x * h / 3, pb.y - db.y * h / 3};
+  double err = 0;
+  for (int k = 1; k < 8 && err <= tol; ++k) {
+    const double t = k / 8.0, m = 1 - t;
+    const XY q{m * m * m * pa.x + 3 * m * m * t * c1.x + 3 * m * t * t * c2.x + t * t * t * pb.x,
+               m * m * m * pa.y + 3 * m * m * t * c1.y + 3 * m * t * t * c2.y + t * t * t * pb.y};
+    err = std::max(err, dist(q, s.point(a + t * h)));
+  }
+  return err;
+}
+
 }  // namespace
 
 void append_arc(DiscPath &path, const Arc &arc, Projection proj, double tol, bool start) {
   const Sampler s{arc, proj};
   const double span = arc.phi1 - arc.phi0;
-  // Start with pieces of at most 180 degrees of the circle; fit() splits further.
-  const int pieces = std::max(1, static_cast<int>(std::ceil(std::fabs(span) / (kPi * 1.0001))));
-  double a = arc.phi0;
-  XY pa = s.point(a), da = s.deriv(a);
-  if (start) path.push_back(PathSeg{PathSeg::Move, {pa, {}, {}}, 0});
-  for (int k = 1; k <= pieces; ++k) {
-    const double b = k == pieces ? arc.phi1 : arc.phi0 + span * k / pieces;
-    const XY pb = s.point(b), db = s.deriv(b);
-    fit(path, s, a, b, pa, da, pb, db, 0.85 * tol, 0);  // margin for the error between the samples
-    a = b;
-    pa = pb;
-    da = db;
+  const double target = 0.85 * tol;  // margin for the error between the samples
+  if (start) path.push_back(PathSeg{PathSeg::Move, {s.point(arc.phi0), {}, {}}, 0});
+  // The fewest equal pieces (in the circle's angle) whose cubics all pass:
+  // fewer segments than halving, so smaller documents. Beyond 16 pieces (never
+  // seen at sizes up to 4000 px) the pieces are split by halving as needed.
+  int pieces = std::max(1, static_cast<int>(std::ceil(std::fabs(span) / (kPi * 1.0001))));
+  std::vector<XY> pt, dv;
+  for (;; ++pieces) {
+    pt.resize(pieces + 1);
+    dv.resize(pieces + 1);
+    for (int k = 0; k <= pieces; ++k) {
+      const double phi = k == pieces ? arc.phi1 : arc.phi0 + span * k / pieces;
+      pt[k] = s.point(phi);
+      dv[k] = s.deriv(phi);
+    }
+    bool ok = true;
+    for (int k = 0; k < pieces && ok; ++k) {
+      const double a = arc.phi0 + span * k / pieces, b = k + 1 == pieces ? arc.phi1 : arc.phi0 + span * (k + 1) / pieces;
+      ok = hermite_error(s, a, b, pt[k], dv[k], pt[k + 1], dv[k + 1], target) <= target;
+    }
+    if (ok || pieces >= 16) break;
+  }
+  for (int k = 0; k < pieces; ++k) {
+    const double a = arc.phi0 + span * k / pieces, b = k + 1 == pieces ? arc.phi1 : arc.phi0 + span * (k + 1) / pieces;
+    fit(path, s, a, b, pt[k], dv[k], pt[k + 1], dv[k + 1], target, 0);
   }
 }
 
