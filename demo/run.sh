@@ -29,3 +29,4 @@ SQL
 psql -X -v ON_ERROR_STOP=1 -f demo/queries.sql
 echo "results written to $OUT/"
 ls "$OUT"
+bash demo/figures.sh

@@ -184,7 +184,7 @@ std::vector<LegendEntry> legend_entries(const Figure &f, const std::vector<std::
                        1, {}});
         break;
       case LayerKind::PTAxes:
-        out.push_back({Swatch::Symbol, c, Symbol::Ring, with_label(l, "P axes", "n = " + std::to_string(n)), 1, {}});
+        out.push_back({Swatch::Symbol, c, Symbol::Ring, (l.label.empty() ? std::string("P axes") : l.label + ", P") + ": n = " + std::to_string(n), 1, {}});
         out.push_back({Swatch::Symbol, c, Symbol::Square, (l.label.empty() ? std::string("T axes") : l.label + ", T") + ": n = " + std::to_string(n), 1, {}});
         break;
       case LayerKind::Mechanism: {
