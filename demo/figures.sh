@@ -21,9 +21,11 @@ for site in $(psql -X -At -c "SELECT DISTINCT site FROM fault_slip_obs ORDER BY 
   figure demo/figures/dihedra.sql "$OUT/$site/dihedra.svg" site="$site"
   figure demo/figures/dihedra_filled.sql "$OUT/$site/dihedra_filled.svg" site="$site"
   figure demo/figures/focal_axes.sql "$OUT/$site/focal_axes.svg" site="$site"
+  figure demo/figures/hoeppener.sql "$OUT/$site/hoeppener.svg" site="$site"
+  figure demo/figures/bedding.sql "$OUT/$site/bedding.svg" site="$site"
   mkdir -p "$OUT/$site/mechanisms"
   for ev in $(psql -X -At -c "SELECT event_id FROM focal_event WHERE site = '$site' ORDER BY event_id"); do
     figure demo/figures/mechanism.sql "$OUT/$site/mechanisms/$ev.svg" event="$ev"
   done
-  echo "figures of $site: $OUT/$site/ (fault_net, dihedra, dihedra_filled, focal_axes .svg; mechanisms/*.svg)"
+  echo "figures of $site: $OUT/$site/ (fault_net, dihedra, dihedra_filled, focal_axes, hoeppener, bedding .svg; mechanisms/*.svg)"
 done

@@ -143,7 +143,10 @@ std::vector<double> levels_of(const Layer &l) {
 // The colour of each layer: data layers take the cycle in figure order.
 std::vector<std::string> layer_colours(const Figure &f) {
   std::vector<std::string> out;
+  // Over filled contour bands (blue) the data start at vermillion.
   int k = 0;
+  for (const Layer &l : f.layers)
+    if (l.kind == LayerKind::Contours && l.params[3] == 1) k = 1;
   for (const Layer &l : f.layers) {
     if (l.kind == LayerKind::Stress || l.kind == LayerKind::Contours) out.push_back(kInk);
     else if (l.kind == LayerKind::PDihedra) out.push_back(kCycle[1]);  // vermillion: apart from the blue bands

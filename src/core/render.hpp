@@ -14,7 +14,8 @@
 // Palette: Okabe & Ito (2008, "Color universal design"), safe for the common
 // colour-vision deficiencies: data layers take blue #0072B2, vermillion
 // #D55E00, bluish green #009E73, reddish purple #CC79A7, orange #E69F00 and sky
-// blue #56B4E9 in turn; stress axes are vermillion (sigma1), yellow (sigma2)
+// blue #56B4E9 in turn (from vermillion when the figure has filled contour
+// bands, which are blue; P dihedra are always vermillion); stress axes are vermillion (sigma1), yellow (sigma2)
 // and sky blue (sigma3) with black outlines; contour bands run from white
 // through sky blue to blue and a dark blue, light to dark, so they read in
 // grey too.
