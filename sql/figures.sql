@@ -45,20 +45,20 @@ SELECT net_stack(x) IS NULL AS empty_stack FROM (SELECT net_mechanism('0/45/90')
 SELECT net_stack(x) FROM (VALUES (net_label(net_cone('0/90', 10), 'b')), (net_mechanism('0/45/90')), (net_label(net_cone('0/90', 10), 'a'))) t(x);
 
 -- A site's faults with the stress from them, in one call; structure of the document
-CREATE TABLE fs AS SELECT i, fault_slip((i * 37) % 360, 10 + (i * 13) % 80, ((i * 53) % 360) - 180) AS f
+CREATE TABLE fig_faults AS SELECT i, fault_slip((i * 37) % 360, 10 + (i * 13) % 80, ((i * 53) % 360) - 180) AS f
   FROM generate_series(1, 40) i;
-CREATE TABLE doc AS SELECT net_svg(net_label(net_faults(f), 'F') || net_stress(stress_inversion(f, 200, 7)) || net_poles(fault_plane(f)),
-                               title => 'Site <A> & "B"', graticule => true) AS svg FROM fs;
+CREATE TABLE fig_doc AS SELECT net_svg(net_label(net_faults(f), 'F') || net_stress(stress_inversion(f, 200, 7)) || net_poles(fault_plane(f)),
+                               title => 'Site <A> & "B"', graticule => true) AS svg FROM fig_faults;
 SELECT xml_is_well_formed_document(svg) AS well_formed, pg_temp.paths(svg, 'slip_planes') AS fault_paths,
        pg_temp.paths(svg, 'poles') AS pole_paths,
        pg_temp.attr(svg, '/s:svg/@width') AS width, pg_temp.attr(svg, '//s:circle[@id="primitive"]/@r') AS radius,
        pg_temp.attr(svg, '//s:text[@id="title"]/text()') AS title,
        svg ~ '^[\x09\x0a\x0d\x20-\x7e]*$' AS plain_ascii
-  FROM doc;
-SELECT string_agg(t, ' / ') AS legend FROM doc, unnest(xpath('//s:g[@id="legend"]/s:text/text()', svg::xml,
+  FROM fig_doc;
+SELECT string_agg(t, ' / ') AS legend FROM fig_doc, unnest(xpath('//s:g[@id="legend"]/s:text/text()', svg::xml,
   ARRAY[ARRAY['s', 'http://www.w3.org/2000/svg']])::text[]) t;
 -- the same figure renders to the same bytes
-SELECT count(DISTINCT md5(net_svg(x))) AS distinct_documents FROM (SELECT net_faults(f) x FROM fs) s, generate_series(1, 3);
+SELECT count(DISTINCT md5(net_svg(x))) AS distinct_documents FROM (SELECT net_faults(f) x FROM fig_faults) s, generate_series(1, 3);
 
 -- Degenerate inputs give a correct document: one datum, vertical planes, data on
 -- the primitive, a horizontal plane, a cone of 90 degrees, a grid of one value
@@ -72,13 +72,13 @@ SELECT k, xml_is_well_formed_document(svg) AS ok, pg_temp.paths(svg, k) AS paths
   ('cones', net_svg(net_cone('0/0', 90) || net_cone('090/00', 30))),
   ('mechanism', net_svg(net_mechanism('0/0/90'), legend => false))) t(k, svg);
 SELECT pg_temp.paths(net_svg(x), 'p_axes') AS p, pg_temp.paths(net_svg(x), 't_axes') AS t
-  FROM (SELECT net_pt_axes(f) x FROM fs) s;
+  FROM (SELECT net_pt_axes(f) x FROM fig_faults) s;
 SELECT xml_is_well_formed_document(svg) AS ok, pg_temp.paths(svg, 'contours') AS bands,
        pg_temp.attr(svg, '//s:g[@class="contours"]/s:path/@d') <> '' AS band_drawn
   FROM (SELECT net_svg(net_contours('{"kind": "density", "spacing": 45, "n": 5, "values": [1, 1, 1, 1, 1, 1, 1, 1, 1, 1, 1]}')) svg) s;
 SELECT pg_temp.paths(net_svg(net_contours(right_dihedra(f, 5), '{25, 50, 75}') || net_dihedra(f)), 'p_dihedra') AS dihedra,
        pg_temp.paths(net_svg(net_contours(right_dihedra(f, 5), '{25, 50, 75}', false)), 'contours') AS lines
-  FROM fs;
+  FROM fig_faults;
 SELECT pg_temp.paths(net_svg(net_stress(stress_tensor('040/00', '130/00', 0.3)), projection => 'equal-angle'), 'stress') AS stress_paths;
 
 -- Errors: class 22 with a message that says what is accepted
@@ -95,20 +95,21 @@ SELECT q, pg_temp.err(q) FROM (VALUES
   ('SELECT net_poles(plane(g % 360, 45)) FROM generate_series(1, 100001) g')) t(q);
 
 -- serial vs parallel: the same figures
-CREATE TABLE big AS SELECT g % 3 AS grp, plane((g * 13.1) % 360, (g * 7.9) % 90) AS p,
+CREATE TABLE fig_big AS SELECT g % 3 AS grp, plane((g * 13.1) % 360, (g * 7.9) % 90) AS p,
   fault_slip((g * 17.3) % 360, (g * 5.1) % 90, ((g * 29.7) % 360) - 180) AS f FROM generate_series(1, 6000) g;
-ANALYZE big;
+ANALYZE fig_big;
 SET parallel_setup_cost = 0; SET parallel_tuple_cost = 0; SET min_parallel_table_scan_size = 0;
 SET max_parallel_workers_per_gather = 2; SET parallel_leader_participation = off;
-CREATE TABLE figs AS SELECT g % 60 AS grp, net_cone(lineation(g % 360, g % 90), 1 + g % 80) AS x FROM generate_series(1, 3000) g;
-ANALYZE figs;
-EXPLAIN (COSTS OFF) SELECT net_poles(p), net_faults(f) FROM big;
-EXPLAIN (COSTS OFF) SELECT grp, net_stack(x) FROM figs GROUP BY grp;
-CREATE TABLE par AS SELECT grp, net_poles(p)::text a, net_faults(f)::text b, net_dihedra(f)::text c FROM big GROUP BY grp;
-CREATE TABLE par_stack AS SELECT grp, net_stack(x)::text s FROM figs GROUP BY grp;
+CREATE TABLE fig_layers AS SELECT g % 60 AS grp, net_cone(lineation(g % 360, g % 90), 1 + g % 80) AS x FROM generate_series(1, 3000) g;
+ANALYZE fig_layers;
+EXPLAIN (COSTS OFF) SELECT net_poles(p), net_faults(f) FROM fig_big;
+EXPLAIN (COSTS OFF) SELECT grp, net_stack(x) FROM fig_layers GROUP BY grp;
+CREATE TABLE fig_par AS SELECT grp, net_poles(p)::text a, net_faults(f)::text b, net_dihedra(f)::text c FROM fig_big GROUP BY grp;
+CREATE TABLE fig_par_stack AS SELECT grp, net_stack(x)::text s FROM fig_layers GROUP BY grp;
 SET max_parallel_workers_per_gather = 0;
-CREATE TABLE ser AS SELECT grp, net_poles(p)::text a, net_faults(f)::text b, net_dihedra(f)::text c FROM big GROUP BY grp;
-CREATE TABLE ser_stack AS SELECT grp, net_stack(x)::text s FROM figs GROUP BY grp;
+CREATE TABLE fig_ser AS SELECT grp, net_poles(p)::text a, net_faults(f)::text b, net_dihedra(f)::text c FROM fig_big GROUP BY grp;
+CREATE TABLE fig_ser_stack AS SELECT grp, net_stack(x)::text s FROM fig_layers GROUP BY grp;
 RESET parallel_leader_participation;
-SELECT count(*) AS groups, bool_and(s.a = p.a AND s.b = p.b AND s.c = p.c) AS identical FROM ser s JOIN par p USING (grp);
-SELECT count(*) AS groups, bool_and(s.s = p.s) AS identical FROM ser_stack s JOIN par_stack p USING (grp);
+SELECT count(*) AS groups, bool_and(s.a = p.a AND s.b = p.b AND s.c = p.c) AS identical FROM fig_ser s JOIN fig_par p USING (grp);
+SELECT count(*) AS groups, bool_and(s.s = p.s) AS identical FROM fig_ser_stack s JOIN fig_par_stack p USING (grp);
+DROP TABLE fig_faults, fig_doc, fig_big, fig_layers, fig_par, fig_par_stack, fig_ser, fig_ser_stack;
