@@ -253,9 +253,62 @@ double hermite_error(const Sampler &s, double a, double b, const XY &pa, const X
 
 }  // namespace
 
+namespace {
+
+// The stereographic image of an arc as at most two circular arcs (or one
+// line), checked against the curve at a few more points. False when the check
+// fails (rounding near a degenerate circle): the caller fits cubics instead.
+bool exact_circle(DiscPath &path, const Sampler &s, const Arc &arc, double tol) {
+  const double span = arc.phi1 - arc.phi0;
+  const int parts = std::fabs(span) > kPi ? 2 : 1;
+  DiscPath out;
+  for (int k = 0; k < parts; ++k) {
+    const double a = arc.phi0 + span * k / parts, b = arc.phi0 + span * (k + 1) / parts;
+    const XY p0 = s.point(a), pm = s.point(0.5 * (a + b)), p1 = s.point(b);
+    // circumcentre of p0, pm, p1
+    const double ax = pm.x - p0.x, ay = pm.y - p0.y, bx = p1.x - p0.x, by = p1.y - p0.y;
+    const double d = 2 * (ax * by - ay * bx);
+    const double chord = std::hypot(bx, by);
+    bool line = std::fabs(d) < 1e-15;
+    XY c{0, 0};
+    double r = 0;
+    if (!line) {
+      const double a2 = ax * ax + ay * ay, b2 = bx * bx + by * by;
+      c = XY{p0.x + (by * a2 - ay * b2) / d, p0.y + (ax * b2 - bx * a2) / d};
+      r = std::hypot(p0.x - c.x, p0.y - c.y);
+      // nearly straight: a line is within tol (sagitta of the arc)
+      if (r > 1e3 && r - std::sqrt(std::max(0.0, r * r - chord * chord / 4)) < 0.25 * tol) line = true;
+    }
+    for (double t : {0.25, 0.75, 0.1, 0.9}) {
+      const XY q = s.point(a + t * (b - a));
+      const double e = line ? (chord > 0 ? std::fabs((q.x - p0.x) * by - (q.y - p0.y) * bx) / chord : dist(q, p0))
+                            : std::fabs(std::hypot(q.x - c.x, q.y - c.y) - r);
+      if (!(e <= 0.5 * tol)) return false;
+    }
+    if (line) {
+      out.push_back(PathSeg{PathSeg::Line, {p1, {}, {}}, 0});
+    } else {
+      const double turn = ax * (p1.y - pm.y) - ay * (p1.x - pm.x);  // > 0: counter-clockwise
+      // more than half the circle when the centre is on the same side of the chord as pm
+      const double side_m = bx * (pm.y - p0.y) - by * (pm.x - p0.x), side_c = bx * (c.y - p0.y) - by * (c.x - p0.x);
+      const bool large = side_m * side_c > 0;
+      out.push_back(PathSeg{PathSeg::CircleArc, {p1, c, XY{r, large ? 1.0 : 0.0}}, turn > 0 ? 1.0 : -1.0});
+    }
+  }
+  path.insert(path.end(), out.begin(), out.end());
+  return true;
+}
+
+}  // namespace
+
 void append_arc(DiscPath &path, const Arc &arc, Projection proj, double tol, bool start) {
   const Sampler s{arc, proj};
   const double span = arc.phi1 - arc.phi0;
+  if (proj == Projection::EqualAngle) {
+    if (start) path.push_back(PathSeg{PathSeg::Move, {s.point(arc.phi0), {}, {}}, 0});
+    if (exact_circle(path, s, arc, tol)) return;
+    start = false;
+  }
   const double target = 0.85 * tol;  // margin for the error between the samples
   if (start) path.push_back(PathSeg{PathSeg::Move, {s.point(arc.phi0), {}, {}}, 0});
   // The fewest equal pieces (in the circle's angle) whose cubics all pass:

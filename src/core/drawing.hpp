@@ -87,13 +87,20 @@ std::vector<Ring> cone_regions(const Vec3 &axis, double r);
 // ---- paths in disc coordinates ------------------------------------------------
 
 struct PathSeg {
-  enum Op : unsigned char { Move, Line, Cubic, Rim, Close } op;
-  XY p[3];       // Move/Line: p[0]; Cubic: controls p[0], p[1], end p[2]; Rim: end p[0]
-  double sweep;  // Rim: signed angle along the unit circle (counter-clockwise > 0)
+  enum Op : unsigned char { Move, Line, Cubic, Rim, Close, CircleArc } op;
+  XY p[3];       // Move/Line: p[0]; Cubic: controls p[0], p[1], end p[2]; Rim: end p[0];
+                 // CircleArc: end p[0], centre p[1], p[2].x radius, p[2].y 1 if more
+                 // than half the circle
+  double sweep;  // Rim: signed angle along the unit circle (counter-clockwise > 0);
+                 // CircleArc: > 0 counter-clockwise
 };
 using DiscPath = std::vector<PathSeg>;
 
-// Append an arc's image as cubic Bezier segments (Hermite: end points and end
+// Append an arc's image. In the equal-angle projection every circle of the
+// sphere is a circle (or a line) in the disc (the stereographic projection
+// keeps circles), so the image is written as one or two exact circular arcs
+// (or a line) when three more points confirm it within tol; otherwise, and in
+// the equal-area projection, as cubic Bezier segments (Hermite: end points and end
 // tangents of the true curve), split until the cubic is within tol of the
 // curve at seven parameters per segment, to 0.85 tol so that the error between
 // them stays within tol (tol in disc units: 0.1 px at a net

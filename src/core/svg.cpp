@@ -162,6 +162,22 @@ SvgWriter &SvgWriter::path_data(const DiscPath &path) {
         last = 'A';
         break;
       }
+      case PathSeg::CircleArc: {
+        const int64_t x = to_hundredths(px(s.p[0])), y = to_hundredths(py(s.p[0]));
+        out += 'A';
+        num(r * s.p[2].x);
+        out += ' ';
+        num(r * s.p[2].x);
+        out += s.p[2].y > 0 ? " 0 1 " : " 0 0 ";
+        out += s.sweep > 0 ? "0 " : "1 ";  // counter-clockwise in the disc: flag 0 (see Rim)
+        hundredths(x);
+        out += ' ';
+        hundredths(y);
+        cur_x_ = x;
+        cur_y_ = y;
+        last = 'A';
+        break;
+      }
       case PathSeg::Close:
         out += 'z';
         cur_x_ = start_x_;

@@ -128,7 +128,10 @@ for proj in ("equal-area", "equal-angle"):
     check(len(root.findall(".//s:g[@class='poles']/s:path", NS)) == 1, "one path for one pole")
 
 # Planes dipping east are drawn in the east half; their poles opposite, in the west.
-root, img, fr = render("east_dip", "SELECT net_svg(net_great_circles(p) || net_poles(p), size => 600, legend => false) FROM (VALUES ('0/60'::plane)) t(p)")
+# The great circle of 030/50 passes through the line 45 degrees from its strike
+# in the plane: cos 45 s + sin 45 d with s the strike and d the down-dip unit
+# vectors (Aki & Richards conventions, METHODS.md section 1; trend 062.7,
+# plunge 32.8).
 
 
 def inked(img, x, y, rad=2):
@@ -136,12 +139,18 @@ def inked(img, x, y, rad=2):
                for i in range(-rad, rad + 1) for j in range(-rad, rad + 1))
 
 
-x, y = at(fr, snyder(unit(90, 60), "equal-area"))
-check(inked(img, x, y), "great circle of 0/60 passes through 090/60 in the east half")
-x, y = at(fr, snyder(unit(270, 60), "equal-area"))
-check(not inked(img, x, y), "and not through 270/60 in the west half")
-x, y = at(fr, snyder(unit(270, 30), "equal-area"))
-check(near(pixel(img, x, y), (0xD5, 0x5E, 0x00)), "pole of 0/60 at 270/30, opposite the dip direction (second colour)")
+for proj in ("equal-area", "equal-angle"):
+    root, img, fr = render("east_dip_" + proj, "SELECT net_svg(net_great_circles(p) || net_poles(p), projection => '%s', size => 600, legend => false) FROM (VALUES ('0/60'::plane), ('30/50')) t(p)" % proj)
+    x, y = at(fr, snyder(unit(90, 60), proj))
+    check(inked(img, x, y), "%s: great circle of 0/60 passes through 090/60 in the east half" % proj)
+    x, y = at(fr, snyder(unit(270, 60), proj))
+    check(not inked(img, x, y), "%s: and not through 270/60 in the west half" % proj)
+    x, y = at(fr, snyder(unit(270, 30), proj))
+    check(near(pixel(img, x, y), (0xD5, 0x5E, 0x00)), "%s: pole of 0/60 at 270/30, opposite the dip direction (second colour)" % proj)
+    sv, dv = unit(30, 0), unit(120, 50)
+    v = tuple(math.sqrt(0.5) * (sv[i] + dv[i]) for i in range(3))
+    x, y = at(fr, snyder(v, proj))
+    check(inked(img, x, y, 1), "%s: great circle of 030/50 passes through the line 45 degrees along it" % proj)
 
 # A cone is centred at its axis: inside at 12 degrees from the axis all round, outside at 18.
 root, img, fr = render("cone", "SELECT net_svg(net_cone('120/50', 15), legend => false)")

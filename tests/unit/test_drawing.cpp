@@ -132,8 +132,26 @@ TEST(Drawing, GreatAndSmallCirclesWithinTolerance) {
         XY cur = path[0].p[0];
         drawn.push_back(cur);
         for (size_t k = 1; k < path.size(); ++k) {
-          for (int j = 1; j <= 48; ++j) drawn.push_back(bezier(cur, path[k].p[0], path[k].p[1], path[k].p[2], j / 48.0));
-          cur = path[k].p[2];
+          const PathSeg &g = path[k];
+          if (g.op == PathSeg::Cubic) {
+            for (int j = 1; j <= 48; ++j) drawn.push_back(bezier(cur, g.p[0], g.p[1], g.p[2], j / 48.0));
+            cur = g.p[2];
+          } else if (g.op == PathSeg::Line) {
+            for (int j = 1; j <= 48; ++j)
+              drawn.push_back(XY{cur.x + (g.p[0].x - cur.x) * j / 48.0, cur.y + (g.p[0].y - cur.y) * j / 48.0});
+            cur = g.p[0];
+          } else {
+            ASSERT_EQ(g.op, PathSeg::CircleArc);
+            const XY c = g.p[1];
+            const double rr = g.p[2].x, t0 = std::atan2(cur.y - c.y, cur.x - c.x);
+            double d = std::atan2(g.p[0].y - c.y, g.p[0].x - c.x) - t0;
+            if (g.sweep > 0 && d < 0) d += 2 * kPi;
+            if (g.sweep < 0 && d > 0) d -= 2 * kPi;
+            EXPECT_EQ(std::fabs(d) > kPi, g.p[2].y > 0);  // the large-arc flag agrees
+            for (int j = 1; j <= 400; ++j)
+              drawn.push_back(XY{c.x + rr * std::cos(t0 + d * j / 400.0), c.y + rr * std::sin(t0 + d * j / 400.0)});
+            cur = g.p[0];
+          }
         }
         std::vector<XY> truth;
         for (int j = 0; j <= 3000; ++j)
