@@ -202,10 +202,24 @@ struct Sampler {
   const Arc &arc;
   Projection proj;
   XY point(double phi) const { return project(arc.at(phi), proj); }
-  XY deriv(double phi) const { return project_derivative(arc.at(phi), arc.tangent(phi), proj); }
+  XY deriv(double phi) const {
+    // at and tangent from one sine and cosine
+    const double c = std::cos(phi), sn = std::sin(phi);
+    const SphereCircle &k = arc.circle;
+    Vec3 v = k.cr * k.c + k.sr * (c * k.e1 + sn * k.e2), t = k.sr * (-sn * k.e1 + c * k.e2);
+    if (arc.flip) {
+      v = -v;
+      t = -t;
+    }
+    return project_derivative(v, t, proj);
+  }
 };
 
-double dist(const XY &a, const XY &b) { return std::hypot(a.x - b.x, a.y - b.y); }
+// Distances here are well inside the double range: no need for hypot's care.
+double dist(const XY &a, const XY &b) {
+  const double dx = a.x - b.x, dy = a.y - b.y;
+  return std::sqrt(dx * dx + dy * dy);
+}
 
 // Hermite cubic on [a, b]; split until it is within tol of the curve.
 void fit(DiscPath &path, const Sampler &s, double a, double b, const XY &pa, const XY &da,
@@ -333,7 +347,15 @@ void append_arc(DiscPath &path, const Arc &arc, Projection proj, double tol, boo
   }
   for (int k = 0; k < pieces; ++k) {
     const double a = arc.phi0 + span * k / pieces, b = k + 1 == pieces ? arc.phi1 : arc.phi0 + span * (k + 1) / pieces;
-    fit(path, s, a, b, pt[k], dv[k], pt[k + 1], dv[k + 1], target, 0);
+    if (pieces < 16) {  // every piece passed above: its cubic as it is
+      const double h = b - a;
+      path.push_back(PathSeg{PathSeg::Cubic,
+                             {XY{pt[k].x + dv[k].x * h / 3, pt[k].y + dv[k].y * h / 3},
+                              XY{pt[k + 1].x - dv[k + 1].x * h / 3, pt[k + 1].y - dv[k + 1].y * h / 3}, pt[k + 1]},
+                             0});
+    } else {
+      fit(path, s, a, b, pt[k], dv[k], pt[k + 1], dv[k + 1], target, 0);
+    }
   }
 }
 
