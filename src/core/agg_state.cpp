@@ -25,13 +25,15 @@ const char *state_kind_aggregates(StateKind k) {
     case StateKind::Phases: return "stress_phases";
     case StateKind::MisfitSummary: return "misfit_summary";
     case StateKind::MomentSum: return "moment_tensor_sum";
+    case StateKind::FigureLayer: return "the figure layer aggregates (net_poles, net_faults, ...)";
+    case StateKind::FigureStack: return "net_stack";
   }
   return "no striae aggregate";
 }
 
 namespace {
 
-bool known_kind(uint32_t k) { return k >= 1 && k <= 11; }
+bool known_kind(uint32_t k) { return k >= 1 && k <= 13; }
 
 }  // namespace
 

@@ -44,6 +44,8 @@ enum class StateKind : uint32_t {
   Phases = 9,              // stress_phases
   MisfitSummary = 10,      // misfit_summary
   MomentSum = 11,          // moment_tensor_sum
+  FigureLayer = 12,        // net_great_circles, net_poles, net_lines, net_faults, net_hoeppener, net_pt_axes, net_dihedra
+  FigureStack = 13,        // net_stack
 };
 
 // The first 8 bytes of every in-memory aggregate state.

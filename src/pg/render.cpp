@@ -2,6 +2,7 @@
 // aggregates that build layers, composition, and net_svg. All geometry and
 // drawing is in src/core (figure, drawing, render); this file unpacks
 // arguments, keeps aggregate data in PostgreSQL memory and returns text.
+#include "agg.hpp"
 #include "grid.hpp"
 
 #include "../core/figure.hpp"
@@ -220,6 +221,7 @@ namespace {
 constexpr uint32 kNetMagic = 0x534e4c31;  // "SNL1"
 
 struct NetAgg {
+  StateTag tag;  // StateKind::FigureLayer (agg_state.hpp)
   int32 kind;
   int32 width;
   int64 count;
@@ -230,6 +232,7 @@ static_assert(std::is_trivially_destructible<NetAgg>::value, "palloc'd state");
 
 NetAgg *net_new(MemoryContext ctx, LayerKind kind, int64 cap) {
   NetAgg *a = static_cast<NetAgg *>(MemoryContextAlloc(ctx, sizeof(NetAgg)));
+  a->tag = state_tag(StateKind::FigureLayer);
   a->kind = static_cast<int32>(kind);
   a->width = layer_item_width(kind);
   a->count = 0;
@@ -252,8 +255,10 @@ void net_reserve(NetAgg *a, int64 need) {
 }
 
 Datum net_accum(FunctionCallInfo fcinfo, LayerKind kind, const char *fn) {
-  NetAgg *a = PG_ARGISNULL(0) ? nullptr : reinterpret_cast<NetAgg *>(PG_GETARG_POINTER(0));
+  NetAgg *a = state_arg<NetAgg>(fcinfo, 0, fn, StateKind::FigureLayer);
   if (a == nullptr) a = net_new(agg_context(fcinfo, fn), kind, 64);
+  if (a->kind != static_cast<int32>(kind))
+    ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: handed the state of another figure layer aggregate", fn)));
   if (!PG_ARGISNULL(1)) {
     net_reserve(a, a->count + 1);
     const double *v = reinterpret_cast<const double *>(PG_GETARG_POINTER(1));
@@ -263,8 +268,8 @@ Datum net_accum(FunctionCallInfo fcinfo, LayerKind kind, const char *fn) {
   PG_RETURN_POINTER(a);
 }
 
-NetAgg *net_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<NetAgg *>(PG_GETARG_POINTER(k));
+NetAgg *net_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<NetAgg>(fcinfo, k, fn, StateKind::FigureLayer);
 }
 
 // Throws unless a is a well-formed state (what a layer of its kind accepts).
@@ -291,7 +296,7 @@ STRIAE_FUNCTION(net_dihedra_accum) { return net_accum(fcinfo, LayerKind::PDihedr
 
 STRIAE_FUNCTION(net_layer_combine) {
   MemoryContext ctx = agg_context(fcinfo, "net_layer_combine");
-  NetAgg *a = net_state(fcinfo, 0), *b = net_state(fcinfo, 1);
+  NetAgg *a = net_state(fcinfo, 0, "net_layer_combine"), *b = net_state(fcinfo, 1, "net_layer_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -312,7 +317,7 @@ STRIAE_FUNCTION(net_layer_combine) {
 
 STRIAE_FUNCTION(net_layer_serialize) {
   agg_context(fcinfo, "net_layer_serialize");
-  const NetAgg *a = net_state(fcinfo, 0);
+  const NetAgg *a = net_state(fcinfo, 0, "net_layer_serialize");
   net_validate(a);
   const Size payload = sizeof(double) * a->width * a->count;
   const Size size = VARHDRSZ + 16 + payload;
@@ -351,7 +356,7 @@ STRIAE_FUNCTION(net_layer_deserialize) {
 }
 
 STRIAE_FUNCTION(net_layer_final) {
-  const NetAgg *a = net_state(fcinfo, 0);
+  const NetAgg *a = net_state(fcinfo, 0, "net_layer_final");
   if (a == nullptr || a->count == 0) PG_RETURN_NULL();
   net_validate(a);
   std::string bytes = guarded([&] {
@@ -376,6 +381,7 @@ namespace {
 constexpr uint32 kStackMagic = 0x534e5331;  // "SNS1"
 
 struct StackAgg {
+  StateTag tag;  // StateKind::FigureStack (agg_state.hpp)
   int64 used;
   int64 cap;
   char *buf;
@@ -384,6 +390,7 @@ static_assert(std::is_trivially_destructible<StackAgg>::value, "palloc'd state")
 
 StackAgg *stack_new(MemoryContext ctx, int64 cap) {
   StackAgg *a = static_cast<StackAgg *>(MemoryContextAlloc(ctx, sizeof(StackAgg)));
+  a->tag = state_tag(StateKind::FigureStack);
   a->used = 0;
   a->cap = Max(cap, 1024);
   a->buf = static_cast<char *>(MemoryContextAlloc(ctx, a->cap));
@@ -403,8 +410,8 @@ void stack_append(StackAgg *a, const char *p, int64 n) {
   a->used += n;
 }
 
-StackAgg *stack_state(FunctionCallInfo fcinfo, int k) {
-  return PG_ARGISNULL(k) ? nullptr : reinterpret_cast<StackAgg *>(PG_GETARG_POINTER(k));
+StackAgg *stack_state(FunctionCallInfo fcinfo, int k, const char *fn) {
+  return state_arg<StackAgg>(fcinfo, k, fn, StateKind::FigureStack);
 }
 
 // All layers of the buffer (each piece checked), limits applied to the sum.
@@ -426,7 +433,7 @@ Figure stack_figure(const char *buf, int64 used) {
 }  // namespace
 
 STRIAE_FUNCTION(net_stack_accum) {
-  StackAgg *a = stack_state(fcinfo, 0);
+  StackAgg *a = stack_state(fcinfo, 0, "net_stack_accum");
   if (a == nullptr) a = stack_new(agg_context(fcinfo, "net_stack_accum"), 1024);
   if (!PG_ARGISNULL(1)) {
     const Bytes b = figure_arg(fcinfo, 1);
@@ -439,7 +446,7 @@ STRIAE_FUNCTION(net_stack_accum) {
 
 STRIAE_FUNCTION(net_stack_combine) {
   MemoryContext ctx = agg_context(fcinfo, "net_stack_combine");
-  StackAgg *a = stack_state(fcinfo, 0), *b = stack_state(fcinfo, 1);
+  StackAgg *a = stack_state(fcinfo, 0, "net_stack_combine"), *b = stack_state(fcinfo, 1, "net_stack_combine");
   if (b == nullptr) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
@@ -451,7 +458,7 @@ STRIAE_FUNCTION(net_stack_combine) {
 
 STRIAE_FUNCTION(net_stack_serialize) {
   agg_context(fcinfo, "net_stack_serialize");
-  const StackAgg *a = stack_state(fcinfo, 0);
+  const StackAgg *a = stack_state(fcinfo, 0, "net_stack_serialize");
   const Size size = VARHDRSZ + 4 + a->used;
   bytea *out = static_cast<bytea *>(palloc(size));
   SET_VARSIZE(out, size);
@@ -475,7 +482,7 @@ STRIAE_FUNCTION(net_stack_deserialize) {
 }
 
 STRIAE_FUNCTION(net_stack_final) {
-  const StackAgg *a = stack_state(fcinfo, 0);
+  const StackAgg *a = stack_state(fcinfo, 0, "net_stack_final");
   if (a == nullptr || a->used == 0) PG_RETURN_NULL();
   std::string bytes = guarded([&] {
     Figure f = stack_figure(a->buf, a->used);
