@@ -148,7 +148,7 @@ deps:
 # test, demo and bench install into the throwaway cluster's own directory
 # (with-cluster.sh --install, Debian's extension_destdir), never into the system.
 test: deps
-	$(MAKE) all
+	$(MAKE) -j2 all
 	$(MAKE) unit
 	$(MAKE) fuzz-smoke
 	bash scripts/with-cluster.sh --install --clusters 3 $(MAKE) cluster-tests
@@ -159,11 +159,11 @@ cluster-tests:
 	bash tests/external/run.sh
 
 demo: deps
-	$(MAKE) all
+	$(MAKE) -j2 all
 	bash scripts/with-cluster.sh --install bash demo/run.sh
 
 bench: deps
-	$(MAKE) all
+	$(MAKE) -j2 all
 	bash scripts/with-cluster.sh --install --clusters 3 bash bench/run.sh
 
 clean: clean-striae
