@@ -5,9 +5,22 @@ import os
 import random
 import sys
 
-out = sys.argv[1] if len(sys.argv) > 1 else "demo-out"
+# generate.py [OUT] [--sites A,B,...]: --sites writes only the named sites' rows (a
+# reduced district for tests); every value is the same as in the full district.
+args = [a for a in sys.argv[1:]]
+only = None
+if "--sites" in args:
+    i = args.index("--sites")
+    only = set(args[i + 1].split(","))
+    del args[i:i + 2]
+out = args[0] if args else "demo-out"
 os.makedirs(out, exist_ok=True)
 rnd = random.Random(2026)
+
+
+def keep(site):
+    """Whether a site's rows are written (all, unless --sites names some)."""
+    return only is None or site in only
 
 # Base mechanisms per site (strike, dip, rake), invented.
 SITES = {
@@ -34,7 +47,9 @@ with open(os.path.join(out, "mechanisms.csv"), "w", newline="") as f:
         for _ in range(12):
             k += 1
             s, d, r = perturb(*base, 6)
-            w.writerow([f"HR{k:04d}", site, round(rnd.uniform(2, 18), 1), f"{s}/{d}/{r}"])
+            row = [f"HR{k:04d}", site, round(rnd.uniform(2, 18), 1), f"{s}/{d}/{r}"]
+            if keep(site):
+                w.writerow(row)
 
 
 def bearing(az):
@@ -81,14 +96,19 @@ with open(os.path.join(out, "field_faults.csv"), "w", newline="") as f:
                 txt = f"{bearing(s)} {d}{quadrant(ddir)}/{pitch}{quadrant(end_az)} {pitch_sense}"
             else:
                 txt = f"{s}/{d}/{round(r)}"
-            w.writerow([site, f"{site[:2]}-{j + 1:02d}", txt])
+            if keep(site):
+                w.writerow([site, f"{site[:2]}-{j + 1:02d}", txt])
 print(f"demo data written to {out}/")
 
 
 # Bedding and lineations per site and map unit (invented): bedding folded about a
 # site fold axis (poles scattered about the girdle normal to the axis), and a
 # mineral lineation cluster per unit.
-FOLDS = {"KESTREL": (200.0, 12.0), "MARLOW": (350.0, 5.0), "TARN": (60.0, 25.0)}
+# The axes are the planted truth of the folds (fold_truth.csv); the sites added for
+# the district map (PLOVER, CAIRN, SEDGE) come last, so the rows of the first three
+# are the same as before they were added.
+FOLDS = {"KESTREL": (200.0, 12.0), "MARLOW": (350.0, 5.0), "TARN": (60.0, 25.0),
+         "PLOVER": (205.0, 8.0), "CAIRN": (40.0, 15.0), "SEDGE": (345.0, 10.0)}
 UNITS = ["Greywacke", "Slate"]
 
 
@@ -126,10 +146,13 @@ with open(os.path.join(out, "bedding.csv"), "w", newline="") as f, \
                     pole = tuple(-x for x in pole)
                 pt = math.degrees(math.atan2(pole[1], pole[0])) % 360
                 pp = math.degrees(math.asin(max(-1.0, min(1.0, pole[2]))))
-                wb.writerow([site, unit_name, f"{round((pt + 90) % 360, 1)}/{round(90 - pp, 1)}"])
+                if keep(site):
+                    wb.writerow([site, unit_name, f"{round((pt + 90) % 360, 1)}/{round(90 - pp, 1)}"])
             lt, lp = (at + 15) % 360, min(85.0, ap + 10)
             for _ in range(15):
-                wl.writerow([site, unit_name, f"{round((lt + rnd.gauss(0, 6)) % 360, 1)}/{round(min(89.0, abs(lp + rnd.gauss(0, 5))), 1)}"])
+                row = [site, unit_name, f"{round((lt + rnd.gauss(0, 6)) % 360, 1)}/{round(min(89.0, abs(lp + rnd.gauss(0, 5))), 1)}"]
+                if keep(site):
+                    wl.writerow(row)
 
 
 # ---------------------------------------------------------------------------
@@ -141,6 +164,11 @@ with open(os.path.join(out, "bedding.csv"), "w", newline="") as f, \
 # compression positive with sigma1 the most compressive. A separate seeded
 # generator keeps the files above unchanged.
 srnd = random.Random(4471)
+# The district map (issue 9) needs more than the three first sites had: map units, age
+# classes and coordinates of every datum, three more sites, and epicentres. All of it
+# comes from a third seeded generator, so that every value the three first sites had
+# before (stress_phases and the README numbers rest on them) is unchanged.
+drnd = random.Random(9091)
 
 # Invented stress states per site: (sigma1 trend, plunge), (sigma3 trend, plunge),
 # shape ratio Phi = (s2 - s3)/(s1 - s3). sigma1 and sigma3 are exactly orthogonal.
@@ -156,10 +184,70 @@ OLDER_STRESS = {
     "MARLOW": ((170.0, 5.0), (350.0, 85.0), 0.30),    # compression
     "TARN": ((200.0, 85.0), (20.0, 5.0), 0.50),       # extension
 }
+# The sites added for the district map, drawn with drnd. Their younger stress fills in
+# the regimes between the first three (thrust, thrust-strike-slip, normal-strike-slip).
+NEW_TRUE_STRESS = {
+    "PLOVER": ((118.0, 8.0), (298.0, 82.0), 0.35),    # thrust, sigma1 ESE, 13 degrees off KESTREL's
+    "CAIRN": ((100.0, 0.0), (10.0, 46.0), 0.50),      # thrust-strike-slip
+    "SEDGE": ((350.0, 46.0), (80.0, 0.0), 0.50),      # normal-strike-slip, sigma3 ENE-WSW
+}
+NEW_OLDER_STRESS = {
+    "PLOVER": ((30.0, 4.0), (120.0, 0.0), 0.50),      # strike-slip
+    "CAIRN": ((210.0, 84.0), (30.0, 6.0), 0.40),      # extension
+    "SEDGE": ((175.0, 6.0), (355.0, 84.0), 0.35),     # compression
+}
+ALL_TRUE = {**TRUE_STRESS, **NEW_TRUE_STRESS}
+ALL_OLDER = {**OLDER_STRESS, **NEW_OLDER_STRESS}
 N_FIELD, N_REVERSED, N_OLDER = 50, 2, 12     # per site: 36 compatible + 2 reversed + 12 of the older phase
-N_FOCAL = 25                                 # focal mechanisms per site
+N_FOCAL = 25                                 # focal mechanisms per site (the first three)
+N_FOCAL_NEW = 15                             # focal mechanisms per added site
 NOISE_SD = 3.0                               # degrees on strike, dip and rake
 MIN_SHEAR = 0.2                              # |tau| / (s1 - s3); the maximum is 0.5
+
+# ---- Geography (invented) --------------------------------------------------------
+# WGS 84 longitude and latitude, degrees. The district is put in the open South
+# Pacific on purpose, about 1,800 km from the nearest land, so that no real place
+# is implied by any map or GIS layer made from it. The sites lie along a ridge
+# trending NNE, thrust front in the west, rift shoulder in the east.
+SITE_PLACE = {          # site centre (lon, lat) and setting
+    "KESTREL": (-137.800, -41.220, "fold-and-thrust front"),
+    "MARLOW": (-137.420, -41.120, "rift shoulder"),
+    "TARN": (-137.620, -41.180, "transfer zone"),
+    "PLOVER": (-137.780, -41.080, "fold-and-thrust front, northern segment"),
+    "CAIRN": (-137.590, -41.300, "transfer zone, southern segment"),
+    "SEDGE": (-137.400, -41.280, "rift shoulder, southern segment"),
+}
+KM_PER_DEG = 111.195    # mean Earth radius 6371 km: 2 pi R / 360; a local flat approximation
+CONTACT_STRIKE = 20.0   # the Greywacke-Slate contact runs NNE through every site
+UNIT_OFFSET_KM = 1.5    # Greywacke stations west of the contact, Slate stations east
+OLDER_ZONE_KM = 2.0     # older faults are found in a basement exposure north of the Greywacke stations
+STATION_SD_KM = 0.35
+EPICENTRE_SHIFT_KM = (4.0, -2.5)   # a site's earthquakes cluster east-south-east of it, beneath the ridge flank
+EPICENTRE_SD_KM = 2.2
+
+
+def place(lon, lat, east_km, north_km):
+    """A point east_km and north_km from (lon, lat) on a local flat approximation."""
+    return (round(lon + east_km / (KM_PER_DEG * math.cos(math.radians(lat))), 5),
+            round(lat + north_km / KM_PER_DEG, 5))
+
+
+def station_place(site, unit_name, age_class):
+    """Where a fault of this map unit and age class was measured at a site."""
+    lon, lat, _ = SITE_PLACE[site]
+    side = -1.0 if unit_name == "Greywacke" else 1.0      # west or east of the contact
+    a = math.radians(CONTACT_STRIKE + 90.0)                # normal to the contact, toward ESE
+    e = side * UNIT_OFFSET_KM * math.sin(a) + drnd.gauss(0, STATION_SD_KM)
+    n = side * UNIT_OFFSET_KM * math.cos(a) + drnd.gauss(0, STATION_SD_KM)
+    if age_class == "older":
+        n += OLDER_ZONE_KM
+    return place(lon, lat, e, n)
+
+
+def epicentre(site):
+    lon, lat, _ = SITE_PLACE[site]
+    return place(lon, lat, EPICENTRE_SHIFT_KM[0] + drnd.gauss(0, EPICENTRE_SD_KM),
+                 EPICENTRE_SHIFT_KM[1] + drnd.gauss(0, EPICENTRE_SD_KM))
 
 
 def dot(a, b):
@@ -228,25 +316,25 @@ def auxiliary_of(s, d, r):
     return from_vectors(slip_vector(s, d, r), n)
 
 
-def random_plane():
+def random_plane(rng):
     """Uniformly distributed normal, dip between 10 and 85 degrees."""
-    c = srnd.uniform(math.cos(math.radians(85)), math.cos(math.radians(10)))
-    return srnd.uniform(0, 360), math.degrees(math.acos(c))
+    c = rng.uniform(math.cos(math.radians(85)), math.cos(math.radians(10)))
+    return rng.uniform(0, 360), math.degrees(math.acos(c))
 
 
-def sheared_plane(S):
+def sheared_plane(S, rng):
     """A random plane carrying enough resolved shear for a defined slip direction."""
     while True:
-        s, d = random_plane()
+        s, d = random_plane(rng)
         r, mag = wallace_bott(S, s, d)
         if mag >= MIN_SHEAR:
             return s, d, r
 
 
-def noisy(s, d, r):
-    s = (s + srnd.gauss(0, NOISE_SD)) % 360
-    d = min(89.0, max(1.0, d + srnd.gauss(0, NOISE_SD)))
-    r = (r + srnd.gauss(0, NOISE_SD) + 180) % 360 - 180
+def noisy(s, d, r, rng):
+    s = (s + rng.gauss(0, NOISE_SD)) % 360
+    d = min(89.0, max(1.0, d + rng.gauss(0, NOISE_SD)))
+    r = (r + rng.gauss(0, NOISE_SD) + 180) % 360 - 180
     return s, d, r
 
 
@@ -257,50 +345,88 @@ def wrap180(r):
 with open(os.path.join(out, "stress_truth.csv"), "w", newline="") as f:
     w = csv.writer(f)
     w.writerow(["site", "sigma1", "sigma3", "shape_ratio", "older_sigma1", "older_sigma3", "older_shape_ratio"])
-    for site, (s1, s3, phi) in TRUE_STRESS.items():
-        o1, o3, ophi = OLDER_STRESS[site]
-        stress_matrix(o1, o3, ophi)   # checks orthogonality
-        w.writerow([site, f"{s1[0]:g}/{s1[1]:g}", f"{s3[0]:g}/{s3[1]:g}", phi,
-                    f"{o1[0]:g}/{o1[1]:g}", f"{o3[0]:g}/{o3[1]:g}", ophi])
+    for site, (s1, s3, phi) in ALL_TRUE.items():
+        o1, o3, ophi = ALL_OLDER[site]
+        stress_matrix(s1, s3, phi)    # checks orthogonality
+        stress_matrix(o1, o3, ophi)
+        if keep(site):
+            w.writerow([site, f"{s1[0]:g}/{s1[1]:g}", f"{s3[0]:g}/{s3[1]:g}", phi,
+                        f"{o1[0]:g}/{o1[1]:g}", f"{o3[0]:g}/{o3[1]:g}", ophi])
+
+with open(os.path.join(out, "fold_truth.csv"), "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["site", "fold_axis"])
+    for site, (at, ap) in FOLDS.items():
+        if keep(site):
+            w.writerow([site, f"{at:g}/{ap:g}"])
+
+with open(os.path.join(out, "sites.csv"), "w", newline="") as f:
+    w = csv.writer(f)
+    w.writerow(["site", "lon", "lat", "setting"])
+    for site, (lon, lat, setting) in SITE_PLACE.items():
+        if keep(site):
+            w.writerow([site, lon, lat, setting])
+
+
+def field_rows(site, rng, n_field=N_FIELD):
+    """A site's field faults: (station, fault, planted kind) drawn with rng."""
+    S = stress_matrix(*ALL_TRUE[site])
+    S_old = stress_matrix(*ALL_OLDER[site])
+    kinds = [""] * (n_field - N_REVERSED - N_OLDER) + ["reversed"] * N_REVERSED + ["older phase"] * N_OLDER
+    rng.shuffle(kinds)
+    for j, kind in enumerate(kinds):
+        while True:
+            s, d, r = noisy(*sheared_plane(S_old if kind == "older phase" else S, rng), rng)
+            if kind == "reversed":
+                r = wrap180(r + 180)
+            s, d, r = round(s) % 360, round(d), round(r)
+            m = misfit_deg(S, s, d, r)
+            # Planted faults must be clearly incompatible with the site's stress
+            # (an older-phase slip can fit the younger stress by chance).
+            if kind == "" or m > 45:
+                break
+        yield f"{site[0]}F-{j + 1:02d}", f"{s}/{d}/{r}", kind
+
 
 # Field fault-slip data: whole degrees as read off a compass, plus an answer-key
 # column `planted` (empty, "reversed" or "older phase") that the inversions never see.
+# The map unit and the age class are what a field party records: the age class from
+# cross-cutting relations and superposed striations, so the older-phase faults are
+# "older", every other fault (the two reversed ones too: a geologist reading the wrong
+# sense still dates the striation) "younger". Older faults are found only in the
+# Greywacke (the Slate postdates the older phase); younger ones in both units.
 with open(os.path.join(out, "fault_slip_data.csv"), "w", newline="") as f:
     w = csv.writer(f)
-    w.writerow(["site", "station", "fault", "planted"])
-    for site, truth in TRUE_STRESS.items():
-        S = stress_matrix(*truth)
-        S_old = stress_matrix(*OLDER_STRESS[site])
-        kinds = [""] * (N_FIELD - N_REVERSED - N_OLDER) + ["reversed"] * N_REVERSED + ["older phase"] * N_OLDER
-        srnd.shuffle(kinds)
-        for j, kind in enumerate(kinds):
-            while True:
-                s, d, r = noisy(*sheared_plane(S_old if kind == "older phase" else S))
-                if kind == "reversed":
-                    r = wrap180(r + 180)
-                s, d, r = round(s) % 360, round(d), round(r)
-                m = misfit_deg(S, s, d, r)
-                # Planted faults must be clearly incompatible with the site's stress
-                # (an older-phase slip can fit the younger stress by chance).
-                if kind == "" or m > 45:
-                    break
-            w.writerow([site, f"{site[0]}F-{j + 1:02d}", f"{s}/{d}/{r}", kind])
+    w.writerow(["site", "station", "fault", "planted", "map_unit", "age_class", "lon", "lat"])
+    for site in ALL_TRUE:
+        rng = srnd if site in TRUE_STRESS else drnd
+        for station, fault, kind in field_rows(site, rng):
+            age = "older" if kind == "older phase" else "younger"
+            unit_name = "Greywacke" if age == "older" or drnd.random() < 0.5 else "Slate"
+            lon, lat = station_place(site, unit_name, age)
+            if keep(site):
+                w.writerow([site, station, fault, kind, unit_name, age, lon, lat])
 
 # Focal mechanisms: drawn like the field faults (no planted outliers), one decimal,
 # and the nodal plane listed is the fault plane or its auxiliary at random, as a
-# catalogue would give it; `listed_plane` is the answer key.
+# catalogue would give it; `listed_plane` is the answer key. Epicentres scatter
+# about their site.
 with open(os.path.join(out, "stress_mechanisms.csv"), "w", newline="") as f:
     w = csv.writer(f)
-    w.writerow(["event_id", "site", "depth_km", "mechanism", "listed_plane"])
+    w.writerow(["event_id", "site", "depth_km", "mechanism", "listed_plane", "lon", "lat"])
     k = 0
-    for site, truth in TRUE_STRESS.items():
+    for site, truth in ALL_TRUE.items():
+        rng = srnd if site in TRUE_STRESS else drnd
         S = stress_matrix(*truth)
-        for _ in range(N_FOCAL):
+        for _ in range(N_FOCAL if site in TRUE_STRESS else N_FOCAL_NEW):
             k += 1
-            s, d, r = noisy(*sheared_plane(S))
-            listed = "auxiliary" if srnd.random() < 0.5 else "fault"
+            s, d, r = noisy(*sheared_plane(S, rng), rng)
+            listed = "auxiliary" if rng.random() < 0.5 else "fault"
             if listed == "auxiliary":
                 s, d, r = auxiliary_of(s, d, r)
-            w.writerow([f"HS{k:04d}", site, round(srnd.uniform(2, 18), 1),
-                        f"{round(s % 360, 1)}/{round(d, 1)}/{round(wrap180(r), 1)}", listed])
+            depth = round(rng.uniform(2, 18), 1)
+            lon, lat = epicentre(site)
+            if keep(site):
+                w.writerow([f"HS{k:04d}", site, depth,
+                            f"{round(s % 360, 1)}/{round(d, 1)}/{round(wrap180(r), 1)}", listed, lon, lat])
 print(f"paleostress demo data written to {out}/")
