@@ -91,6 +91,7 @@ def fmt_regime(d):
 # The columns of every result table on the page. sigma2 is in the CSV and the GeoJSON;
 # the page leaves it out so that a table fits beside the map.
 STANDARD_COLUMNS = [
+    ("domain", "#", lambda d: esc(d.get("domain"))),
     ("n", "n", lambda d: esc(d.get("n"))),
     ("sigma1", "&sigma;1 &plusmn;&nbsp;95&nbsp;% cone", lambda d: fmt_axis(d, 1)),
     ("sigma3", "&sigma;3", lambda d: fmt_axis(d, 3)),
@@ -163,7 +164,7 @@ def fmt_deg(v, pos, neg, step):
     digits = max(0, -math.floor(math.log10(step) + 1e-9)) if step < 1 else 0
     if step < 1 and abs(step * 10 ** digits - round(step * 10 ** digits)) > 1e-9:
         digits += 1
-    return f"{abs(v):.{digits}f}&deg;{pos if v >= 0 else neg}"
+    return f"{abs(v):.{digits}f}°{pos if v >= 0 else neg}"
 
 
 def f2(x):
@@ -326,14 +327,17 @@ def draw_map(m, out_dir):
         o.append("</g>")
     o.append("</g>")
     # place labels, linked to their sections
-    o.append(f'<g id="places" font-weight="bold" fill="{INK}" stroke="#ffffff" stroke-width="3" paint-order="stroke">')
+    o.append(f'<g id="places" font-weight="bold" fill="{INK}" stroke="#ffffff" stroke-width="3" paint-order="stroke" clip-path="url(#map-clip)">')
     for p in places:
         lon, lat = num(p.get("lon")), num(p.get("lat"))
         if lon is None or lat is None:
             continue
         x, y = fr.xy(lon, lat)
         a = f'<a href="#{esc(p["anchor"])}">' if p.get("anchor") else "<a>"
-        o.append(f'{a}<text x="{f2(x - 12)}" y="{f2(y - 14)}" text-anchor="end">{esc(p["name"])}</text></a>')
+        # up and to the left of the point, or to the right where the frame is near
+        left = x - 12 - 6.5 * len(p["name"]) > MAP_PAD
+        tx, anchor = (x - 12, "end") if left else (x + 12, "start")
+        o.append(f'{a}<text x="{f2(tx)}" y="{f2(max(y - 14, MAP_PAD + 12))}" text-anchor="{anchor}">{esc(p["name"])}</text></a>')
     o.append("</g>")
     o += labels
     # frame, north arrow, scale bar
@@ -375,7 +379,7 @@ def legend(m):
 
 
 def domain_table(rows, label_cols, extra_cols, table_id=None):
-    cols = label_cols + STANDARD_COLUMNS + extra_cols
+    cols = STANDARD_COLUMNS[:1] + label_cols + STANDARD_COLUMNS[1:] + extra_cols
     ident = f' id="{esc(table_id)}"' if table_id else ""
     out = [f'<div class="table-wrap"><table class="domains"{ident}><thead><tr>']
     out += [f"<th>{h}</th>" for _, h, _ in cols]
