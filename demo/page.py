@@ -52,13 +52,16 @@ for d in domains:
     d["_title"] = f"{d['site']}: {what}, n {d['n']}: {shmax}{d['regime'] or 'no result'}"
 
 groups = []
-for s in sites:
+for s in sorted(sites, key=lambda s: s["site"]):
     name = s["site"]
     fig_dir = os.path.join(out, "figures", name)
     figs = [(f"figures/{name}/{k}.svg", c) for k, c in FIGURES if os.path.exists(os.path.join(fig_dir, f"{k}.svg"))]
     evs = sorted(e["event_id"] for e in events if e["site"] == name)
     thumbs = [(f"figures/{name}/mechanisms/{ev}.svg", ev) for ev in evs]
     groups.append({"name": name, "anchor": f"site-{name}", "subtitle": s["setting"], "figures": figs,
+                   "note": "The figures show all of the site's field faults (both units and age classes); the "
+                           "stress drawn on them is that of the larger of the two stress phases that "
+                           "stress_phases separates blind, without the age classes.",
                    "thumbs": thumbs, "thumbs_title": f"Focal mechanisms near {name} ({len(evs)})"})
 
 manifest = {

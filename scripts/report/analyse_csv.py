@@ -83,7 +83,7 @@ def read_table(path):
     except UnicodeDecodeError as e:
         raise Fail(f"{path}: not a CSV file in UTF-8 (byte {e.start + 1} is not UTF-8); save the table "
                    "as CSV, comma-separated, UTF-8", 2)
-    first = text.splitlines()[0] if text.splitlines() else ""
+    first = next((ln for ln in text.splitlines() if ln.strip()), "")
     delim = ","
     if "," not in first:
         counts = {d: first.count(d) for d in (";", "\t")}
@@ -332,7 +332,7 @@ def analyse(args, path, spec, records, blank):
 
     # The listing and the counts: every data row is good or bad, never dropped.
     n_rows = len(records)
-    print(f"{PROG}: {path}: {n_rows} data rows" + (f" ({blank} blank lines skipped)" if blank else "")
+    print(f"{PROG}: {path}: {n_rows} data rows" + (f" ({blank} blank line{'s' if blank > 1 else ''} skipped)" if blank else "")
           + f": {good} analysed, {len(bad_lines)} bad")
     for line, col, value, reason in bad:
         where = f"{col} " if col else ""

@@ -334,10 +334,12 @@ def draw_map(m, out_dir):
             continue
         x, y = fr.xy(lon, lat)
         a = f'<a href="#{esc(p["anchor"])}">' if p.get("anchor") else "<a>"
-        # up and to the left of the point, or to the right where the frame is near
-        left = x - 12 - 6.5 * len(p["name"]) > MAP_PAD
-        tx, anchor = (x - 12, "end") if left else (x + 12, "start")
-        o.append(f'{a}<text x="{f2(tx)}" y="{f2(max(y - 14, MAP_PAD + 12))}" text-anchor="{anchor}">{esc(p["name"])}</text></a>')
+        # below and to the left of the point (bars are centred on points, so a label
+        # there covers the least of them), to the right where the frame is near
+        left = x - 8 - 6.5 * len(p["name"]) > MAP_PAD
+        tx, anchor = (x - 8, "end") if left else (x + 8, "start")
+        ty = min(y + 24, MAP_H - MAP_PAD - 4)
+        o.append(f'{a}<text x="{f2(tx)}" y="{f2(ty)}" text-anchor="{anchor}">{esc(p["name"])}</text></a>')
     o.append("</g>")
     o += labels
     # frame, north arrow, scale bar

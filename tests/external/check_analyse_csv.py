@@ -131,7 +131,7 @@ out = os.path.join(work, "faults-out")
 rc, so, se = run([faults_csv, "--db", DB, "--out", out])
 check(rc == 0, "faults: exit 0 (%d)%s" % (rc, "" if rc == 0 else ": " + se[-1500:]))
 so_lines = so.splitlines()
-head = "analyse-csv: %s: %d data rows (1 blank lines skipped): %d analysed, %d bad" % (faults_csv, len(good) + 6, len(good), 6)
+head = "analyse-csv: %s: %d data rows (1 blank line skipped): %d analysed, %d bad" % (faults_csv, len(good) + 6, len(good), 6)
 check(so_lines[:1] == [head], "faults: the counts line is exact: %r" % so_lines[:1])
 listing = [ln.strip() for ln in so_lines[1:] if ln.startswith("  line ")]
 check(listing == expected_listing, "faults: the bad rows are listed exactly, in line order")
