@@ -424,7 +424,7 @@ figcaption { font-size: 12px; color: var(--muted); }
 .thumbs { display: flex; flex-wrap: wrap; gap: 4px; margin-top: 8px; }
 .thumbs img { width: 92px; height: auto; border: 1px solid var(--rule); }
 h3 { font-size: 14px; margin: 12px 0 4px; }
-@media (max-width: 1100px) { main { grid-template-columns: minmax(0, 1fr); } #map-column { position: static; } }
+@media (max-width: 1400px) { main { grid-template-columns: minmax(0, 1fr); } #map-column { position: static; } }
 """
 
 
