@@ -32,6 +32,7 @@ import page  # noqa: E402
 
 PROG = "analyse-csv"
 MAX_DIAGRAMS = 400          # focal-sphere diagrams drawn (files and map); the rest are counted
+MAX_STATIONS = 5000         # station marks on the map (an even sample beyond); the rest are counted
 SEED_DEFAULT = 20261
 RESAMPLES_DEFAULT = 500
 
@@ -243,7 +244,7 @@ SCREEN = {
 
 
 def slug(name, taken):
-    s = re.sub(r"[^A-Za-z0-9._-]+", "_", name).strip("._") or "group"
+    s = re.sub(r"[^A-Za-z0-9._-]+", "_", name).strip("._")[:60] or "group"
     base, k = s, 2
     while s.lower() in taken:
         s, k = f"{base}_{k}", k + 1
@@ -403,8 +404,9 @@ def analyse(args, path, spec, records, blank):
         gdir = os.path.join(out, "figures", s)
         os.makedirs(gdir, exist_ok=True)
         figs = []
+        title = name if len(name.encode()) <= 120 else name.encode()[:117].decode(errors="ignore") + "..."
         for fname, caption, q in figure_sql(kind):
-            cur.execute(q, {"g": grp, "title": name, "slabel": "stress"})
+            cur.execute(q, {"g": grp, "title": title, "slabel": "stress"})
             svg = cur.fetchone()[0]
             with open(os.path.join(gdir, fname + ".svg"), "w", encoding="utf-8") as f:
                 f.write(svg)
@@ -413,7 +415,7 @@ def analyse(args, path, spec, records, blank):
         if kind == "mechanisms":
             os.makedirs(os.path.join(gdir, "mechanisms"), exist_ok=True)
             cur.execute("""SELECT line, label, f::text, lon, lat,
-                                  net_svg(net_label(net_mechanism(f), label), size => 240, title => label)
+                                  net_svg(net_label(net_mechanism(f), left(label, 60)), size => 240, title => left(label, 60))
                              FROM pg_temp.obs WHERE grp = %s ORDER BY line LIMIT %s""",
                         (grp, max(0, MAX_DIAGRAMS - diagrams)))
             for line, label, fs, lon, lat, svg in cur.fetchall():
@@ -430,6 +432,9 @@ def analyse(args, path, spec, records, blank):
     n_mech = sum(1 for _ in obs) if kind == "mechanisms" else 0
     if kind == "mechanisms" and diagrams < n_mech:
         print(f"  focal-sphere diagrams drawn for the first {diagrams} of {n_mech} mechanisms (the map and the page)")
+        map_notes_mech = [f"Focal-sphere diagrams are drawn for the first {diagrams} of the {n_mech} mechanisms."]
+    else:
+        map_notes_mech = []
 
     for d in domains:
         label = " / ".join(str(d[c]) for c in gcols)
@@ -439,6 +444,12 @@ def analyse(args, path, spec, records, blank):
         d["_title"] = f"{label}: n {d['n']}: {sh}{d.get('regime') or 'no result'}"
     stations = ([{"lon": lon, "lat": lat, "class": 0} for _, _, _, _, lon, lat in obs if lon is not None]
                 if kind == "faults" else [])
+    map_notes = map_notes_mech
+    if len(stations) > MAX_STATIONS:
+        step = len(stations) / MAX_STATIONS
+        map_notes.append(f"The map shows {MAX_STATIONS} of the {len(stations)} stations, an even sample.")
+        print(f"  the map shows {MAX_STATIONS} of {len(stations)} stations (an even sample)")
+        stations = [stations[int(i * step)] for i in range(MAX_STATIONS)]
     # groups are labelled on the map by their number (#) in the tables: names may be long
     places = [{"name": str(d["domain"]), "lon": d.get("lon"), "lat": d.get("lat"),
                "anchor": g["anchor"]} for d, g in zip(domains, groups)]
@@ -457,7 +468,7 @@ def analyse(args, path, spec, records, blank):
         "map_title": "Map: SHmax by group" + (", focal mechanisms" if kind == "mechanisms" else ""),
         "map_notes": ["SHmax bars are centred on the mean position of a group's rows and numbered as in the "
                       "tables (#); their colour is the stress regime after Zoback (1992), their length fixed. "
-                      "Local equirectangular projection."],
+                      "Local equirectangular projection."] + map_notes,
         "group_header": ", ".join(spec["group_names"]),
         "label_columns": [],
         "bar_styles": [("solid" if kind == "faults" else "open", f"SHmax of a group's {what}")],
