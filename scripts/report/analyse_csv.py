@@ -481,6 +481,9 @@ def analyse(args, path, spec, records, blank):
     }
     index = page.write(manifest, out)
     print(f"  groups: {len(domains)} (" + ", ".join(f"{d['_group']}: {d['n']}" for d in domains) + ")")
+    no_xy = sum(1 for o in obs if o[4] is None) if has_xy else 0
+    if no_xy:
+        print(f"  rows analysed without coordinates (not on the map, not in a group's position): {no_xy}")
     no_result = [d["_group"] for d in domains if d.get("regime") is None]
     if no_result:
         print(f"  no stress result (fewer than 4 data or a degenerate set): {', '.join(no_result)}")
