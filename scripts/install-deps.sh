@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # Install the Debian packages striae needs to build, test (clang and its
 # runtime for the libFuzzer harnesses; pgbench comes with postgresql-15), run the
-# demo and the benchmarks. Idempotent; prints nothing when everything is present.
+# demo and the benchmarks; PostGIS for the companion extension striae_gis, GDAL
+# (ogr2ogr) and pyproj for its checks. Idempotent; prints nothing when everything is present.
 set -euo pipefail
 
 PACKAGES=(
@@ -14,6 +15,8 @@ PACKAGES=(
   proj-bin                          # PROJ: reference for the net projections
   chromium fonts-dejavu-core python3-pil   # figures rendered and sampled in a real browser
   python3-matplotlib                # baseline of the figure benchmark
+  postgresql-15-postgis-3           # the companion extension striae_gis requires PostGIS
+  gdal-bin python3-pyproj           # GIS client (ogr2ogr) and geodesic reference (pyproj.Geod)
 )
 
 missing=()
