@@ -400,10 +400,22 @@ void refine(std::vector<XY> &out, const Sampler &s, double a, double b, const XY
   out.push_back(pb);
 }
 
+// The piece of the primitive from a0 to a1 (the point at a0 is already in out)
+// as a polyline of tangents: corners where the tangents at n + 1 equally spaced
+// points meet, at radius 1 / cos(h / 2) (within tol of the circle), then the end
+// point. It lies on or outside the circle, and a polyline through points of the
+// disc lies inside it (the disc is convex), so the outline of a region never
+// crosses itself, however close a curve runs to the primitive (a nearly
+// horizontal nodal plane): what a GIS requires of a valid polygon.
 void rim_points(std::vector<XY> &out, double a0, double a1, double tol) {
-  const double step = 2 * std::acos(std::max(0.0, 1 - std::min(tol, 0.5)));
+  const double step = 2 * std::acos(1 / (1 + std::min(tol, 0.5)));
   const int n = std::max(1, static_cast<int>(std::ceil(std::fabs(a1 - a0) / step)));
-  for (int k = 1; k <= n; ++k) out.push_back(rim_point(a0 + (a1 - a0) * k / n));
+  const double h = (a1 - a0) / n, r = 1 / std::cos(h / 2);
+  for (int k = 1; k <= n; ++k) {
+    const double t = a0 + h * (k - 0.5);
+    out.push_back(XY{r * std::cos(t), r * std::sin(t)});
+  }
+  out.push_back(rim_point(a1));
 }
 
 }  // namespace

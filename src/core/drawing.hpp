@@ -111,7 +111,9 @@ void append_ring(DiscPath &path, const Ring &ring, Projection proj, double tol);
 
 // A ring as a polygon: points along it within tol of the true outline, first
 // point not repeated at the end, counter-clockwise (positive area, x east and y
-// north). For GIS output and tests.
+// north). Curves are chords between points of the curve; pieces of the
+// primitive are tangent polylines just outside the circle (within tol), so no
+// outline crosses itself (a valid polygon for a GIS). For GIS output and tests.
 std::vector<XY> ring_polygon(const Ring &ring, Projection proj, double tol);
 // An arc as a polyline within tol, both ends included.
 std::vector<XY> arc_polyline(const Arc &arc, Projection proj, double tol);

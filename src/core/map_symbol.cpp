@@ -15,6 +15,20 @@ namespace {
 // symbol, and keeps the rim at a few thousand vertices at most.
 constexpr double kMinTolerance = 1e-6;
 
+// Two regions of the same kind meet only in points: the B axis, where all
+// four quadrants meet, and, when B is horizontal, its two ends on the
+// primitive. Each ring computes such a point from its own curve, so the copies
+// differ by rounding, and polygons that overlap by 1e-16 are not a valid
+// MultiPolygon. Copies within 1e-9 of the disc radius become one point.
+void snap_shared_points(std::vector<std::vector<XY>> &rings) {
+  constexpr double eps = 1e-9;
+  for (size_t i = 0; i < rings.size(); ++i)
+    for (size_t j = i + 1; j < rings.size(); ++j)
+      for (XY &q : rings[j])
+        for (const XY &p : rings[i])
+          if (std::fabs(p.x - q.x) < eps && std::fabs(p.y - q.y) < eps) q = p;
+}
+
 void close_ring(LonLatRing &r) {
   if (!r.empty()) r.push_back(r.front());
 }
@@ -76,8 +90,9 @@ std::vector<LonLatRing> focal_symbol(const FaultSlip &f, const LonLat &c, double
   check_location(c);
   check_symbol_size(radius_m, "symbol radius");
   check_symbol_tolerance(tol);
-  const FocalDrawing d = focal_drawing(f, proj, tol);
-  const std::vector<std::vector<XY>> &parts = compressional ? d.compressional : d.dilatational;
+  FocalDrawing d = focal_drawing(f, proj, tol);
+  std::vector<std::vector<XY>> &parts = compressional ? d.compressional : d.dilatational;
+  snap_shared_points(parts);
   std::vector<LonLatRing> out;
   for (const std::vector<XY> &poly : parts) {
     poll_interrupts();
@@ -94,14 +109,15 @@ LonLatRing symbol_disc(const LonLat &c, double radius_m, double tol) {
   check_location(c);
   check_symbol_size(radius_m, "symbol radius");
   check_symbol_tolerance(tol);
-  // Chords of angle 2 acos(1 - tol) stay within tol of the rim (as drawing.cpp
-  // draws the rim pieces of the quadrants).
-  const int n = std::max(8, static_cast<int>(std::ceil(kPi / std::acos(1 - tol))));
+  // A tangent polygon, as drawing.cpp draws the quadrants' pieces of the rim:
+  // n sides touching the circle, corners at radius 1 / cos(pi / n) <= 1 + tol.
+  const int n = std::max(8, static_cast<int>(std::ceil(kPi / std::acos(1 / (1 + tol)))));
+  const double r = 1 / std::cos(kPi / n);
   LonLatRing ring;
   ring.reserve(n + 1);
   for (int k = 0; k < n; ++k) {
-    const double t = 2 * kPi * k / n;  // counter-clockwise from east
-    ring.push_back(place_disc_point(c, radius_m, XY{std::cos(t), std::sin(t)}));
+    const double t = 2 * kPi * (k + 0.5) / n;  // counter-clockwise from east
+    ring.push_back(place_disc_point(c, radius_m, XY{r * std::cos(t), r * std::sin(t)}));
   }
   close_ring(ring);
   return ring;

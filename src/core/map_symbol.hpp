@@ -42,13 +42,15 @@ LonLat place_disc_point(const LonLat &c, double radius_m, const XY &p);
 // compressional first motion, containing T, shaded in a focal-sphere diagram)
 // or dilatational (containing P), drawn as focal_drawing (drawing.hpp) draws
 // them in the given projection within tol of the disc radius, placed at c with
-// radius radius_m. One counter-clockwise ring per connected region.
+// radius radius_m. One counter-clockwise ring per connected region; the points
+// where regions meet are shared exactly, so the rings form a valid MultiPolygon.
 std::vector<LonLatRing> focal_symbol(const FaultSlip &f, const LonLat &c, double radius_m, bool compressional,
                                      Projection proj, double tol);
 
-// The outline of a symbol's disc: a counter-clockwise ring of points of the rim
-// (the rim's chords within tol of the radius), for the white background of a
-// focal-sphere diagram.
+// The outline of a symbol's disc, for the background of a focal-sphere
+// diagram: a counter-clockwise polygon whose sides touch the rim and whose
+// corners lie within tol of it (as the quadrants' pieces of the rim are drawn,
+// drawing.hpp), so quadrants and outline cover the same ground.
 LonLatRing symbol_disc(const LonLat &c, double radius_m, double tol);
 
 // Checks of the symbol size (over 0 and at most kMaxSymbolMetres; what names

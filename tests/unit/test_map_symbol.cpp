@@ -215,9 +215,10 @@ TEST(MapSymbol, FocalQuadrantsPlacedFromTheDrawing) {
     for (size_t k = 0; k < comp.size(); ++k) {
       ASSERT_EQ(comp[k].size(), d.compressional[k].size() + 1);
       for (size_t j = 0; j < d.compressional[k].size(); ++j) {
+        // equal but for the shared points, snapped to one copy (at most 1e-9 of the radius)
         const LonLat q = place_disc_point(c, radius, d.compressional[k][j]);
-        EXPECT_EQ(comp[k][j].lon, q.lon);
-        EXPECT_EQ(comp[k][j].lat, q.lat);
+        EXPECT_NEAR(comp[k][j].lon, q.lon, 1e-9 * radius / 1e5);
+        EXPECT_NEAR(comp[k][j].lat, q.lat, 1e-9 * radius / 1e5);
       }
     }
     const LonLat t = place_disc_point(c, radius, XY{0.999 * d.t.x, 0.999 * d.t.y});
@@ -234,19 +235,84 @@ TEST(MapSymbol, FocalQuadrantsPlacedFromTheDrawing) {
   }
 }
 
-// The disc outline: n = ceil(pi / acos(1 - tol)) rim points (chord sagitta
-// 1 - cos(pi / n) <= tol [derived]), counter-clockwise from east, closed.
+namespace {
+
+double orient(const LonLat &a, const LonLat &b, const LonLat &c) {
+  return (b.lon - a.lon) * (c.lat - a.lat) - (b.lat - a.lat) * (c.lon - a.lon);
+}
+// Segments ab and cd cross at a point inside both (not at an end).
+bool cross(const LonLat &a, const LonLat &b, const LonLat &c, const LonLat &d) {
+  const double o1 = orient(a, b, c), o2 = orient(a, b, d), o3 = orient(c, d, a), o4 = orient(c, d, b);
+  return ((o1 > 0 && o2 < 0) || (o1 < 0 && o2 > 0)) && ((o3 > 0 && o4 < 0) || (o3 < 0 && o4 > 0));
+}
+// Pairs of crossing edges of rings r and s (r == s: non-adjacent edges of one ring).
+int crossings(const LonLatRing &r, const LonLatRing &s) {
+  int n = 0;
+  for (size_t i = 0; i + 1 < r.size(); ++i)
+    for (size_t j = (&r == &s ? i + 2 : 0); j + 1 < s.size(); ++j) {
+      if (&r == &s && i == 0 && j + 2 == s.size()) continue;  // first and last edge meet
+      n += cross(r[i], r[i + 1], s[j], s[j + 1]);
+    }
+  return n;
+}
+
+}  // namespace
+
+// OGC validity of the quadrants as a GIS checks it: no ring crosses itself or
+// another ring of the same kind, even when a nodal plane runs within less than
+// the tolerance of the primitive (nearly horizontal planes), and rings of one
+// kind that meet at the B axis share that point exactly.
+TEST(MapSymbol, FocalQuadrantsAreValidPolygons) {
+  Rng r(13);
+  std::vector<FaultSlip> fs = {{0, 0.001, 30}, {10, 0.1, -179.7}, {274.7, 0.1, -179.7}, {18.8, 0.4, -178.8},
+                               {44.6, 71.8, 125.4}, {353, 19, -123}, {0, 90, 0}, {0, 45, 90}, {0, 0, 30},
+                               {120, 89.999, 0.001}};
+  for (int i = 0; i < 150; ++i) fs.push_back(FaultSlip{360 * r.uniform(), 90 * r.uniform(), 360 * r.uniform() - 180});
+  const LonLat c{10, 45};
+  for (const FaultSlip &f : fs)
+    for (Projection p : {Projection::EqualArea, Projection::EqualAngle})
+      for (bool comp : {true, false}) {
+        const std::vector<LonLatRing> rings = focal_symbol(f, c, 3000, comp, p, 1e-3);
+        for (size_t a = 0; a < rings.size(); ++a) {
+          EXPECT_EQ(crossings(rings[a], rings[a]), 0) << f.strike << "/" << f.dip << "/" << f.rake;
+          for (size_t b = a + 1; b < rings.size(); ++b)
+            EXPECT_EQ(crossings(rings[a], rings[b]), 0) << f.strike << "/" << f.dip << "/" << f.rake;
+        }
+        // B inside the disc: the two rings of a kind meet there, in one point
+        Vec3 n, u;
+        fault_vectors(f, n, u);
+        const Vec3 b = n.cross(u);
+        if (rings.size() == 2 && std::fabs(b.z()) > 1e-3) {
+          const LonLat pb = place_disc_point(c, 3000, project_axis(b, p));
+          int shared = 0;
+          for (const LonLat &q : rings[0])
+            for (const LonLat &w : rings[1]) shared += q.lon == w.lon && q.lat == w.lat;
+          EXPECT_EQ(shared, 1) << f.strike << "/" << f.dip << "/" << f.rake;
+          bool at_b = false;
+          for (const LonLat &q : rings[0]) at_b = at_b || (std::fabs(q.lon - pb.lon) < 1e-9 && std::fabs(q.lat - pb.lat) < 1e-9);
+          EXPECT_TRUE(at_b) << f.strike << "/" << f.dip << "/" << f.rake;
+        }
+      }
+}
+
+// The disc outline: a tangent polygon of n = ceil(pi / acos(1 / (1 + tol)))
+// sides, whose corners at 1 / cos(pi / n) stay within tol of the rim [derived],
+// counter-clockwise from east, closed.
 TEST(MapSymbol, Disc) {
   for (double tol : {0.5, 0.01, 1e-3, 1e-6}) {
-    const LonLatRing r = symbol_disc(LonLat{-70, -33}, 2000, tol);
-    const int n = std::max(8, static_cast<int>(std::ceil(kPi / std::acos(1 - tol))));
+    const LonLat c{-70, -33};
+    const LonLatRing r = symbol_disc(c, 2000, tol);
+    const int n = std::max(8, static_cast<int>(std::ceil(kPi / std::acos(1 / (1 + tol)))));
     ASSERT_EQ(r.size(), static_cast<size_t>(n + 1)) << tol;
-    EXPECT_LE(1 - std::cos(kPi / n), tol);
+    EXPECT_LE(1 / std::cos(kPi / n) - 1, tol);
     EXPECT_GT(shoelace(r), 0);
     EXPECT_EQ(r.front().lat, r.back().lat);
-    EXPECT_GT(r[0].lon, -70);  // starts east of the centre
-    const LonLat e = geodesic_direct(LonLat{-70, -33}, 90, 2000).point;
-    EXPECT_EQ(r[0].lon, e.lon);
+    EXPECT_GT(r[0].lon, c.lon);  // starts east of the centre
+    EXPECT_GT(r[0].lat, r[n - 1].lat);
+    // first corner: where the tangents at angles 0 and 2 pi / n meet, (1, tan(pi / n))
+    const LonLat corner = place_disc_point(c, 2000, XY{1, std::tan(kPi / n)});
+    EXPECT_NEAR(r[0].lon, corner.lon, 1e-11);
+    EXPECT_NEAR(r[0].lat, corner.lat, 1e-11);
   }
 }
 
