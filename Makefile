@@ -9,9 +9,14 @@
 #   make unit       GoogleTest unit tests of src/core only (no server)
 #   make sanitize   the unit tests under AddressSanitizer and UndefinedBehaviorSanitizer
 #   make fuzz       libFuzzer harnesses, FUZZ_SECONDS (default 300) per target
+#
+# Two extensions are built and installed side by side: striae (C++, this
+# library) and its companion striae_gis (SQL only, requires striae and PostGIS;
+# its script is src/gis/), so that striae itself never needs PostGIS.
 
-EXTENSION   = striae
+EXTENSION   = striae striae_gis
 EXTVERSION  = 0.2.0
+GIS_VERSION = 0.1.0
 MODULE_big  = striae
 PG_CONFIG  ?= pg_config
 
@@ -26,8 +31,8 @@ SQL_PARTS   = $(sort $(wildcard src/sql/*.sql))
 NEW_IN_0_2_0 = src/sql/50_figures.sql src/sql/50_usability.sql src/sql/55_index.sql src/sql/60_analysis.sql \
                src/sql/65_maps.sql
 UPGRADE_0_2_0 = src/sql/upgrade/0.1.0--0.2.0.sql $(NEW_IN_0_2_0)
-DATA        = src/sql/released/$(EXTENSION)--0.1.0.sql
-DATA_built  = $(EXTENSION)--$(EXTVERSION).sql $(EXTENSION)--0.1.0--$(EXTVERSION).sql
+DATA        = src/sql/released/striae--0.1.0.sql src/gis/striae_gis--$(GIS_VERSION).sql
+DATA_built  = striae--$(EXTVERSION).sql striae--0.1.0--$(EXTVERSION).sql
 REGRESS     = $(basename $(notdir $(sort $(wildcard sql/*.sql))))
 REGRESS_OPTS = --dbname=striae_regress
 
@@ -52,10 +57,10 @@ all install installcheck:
 	@exit 1
 endif
 
-$(EXTENSION)--$(EXTVERSION).sql: $(SQL_PARTS)
+striae--$(EXTVERSION).sql: $(SQL_PARTS)
 	cat $(SQL_PARTS) > $@
 
-$(EXTENSION)--0.1.0--$(EXTVERSION).sql: $(UPGRADE_0_2_0)
+striae--0.1.0--$(EXTVERSION).sql: $(UPGRADE_0_2_0)
 	cat $(UPGRADE_0_2_0) > $@
 
 # Every object depends on the headers (small project: rebuild all on a change).
