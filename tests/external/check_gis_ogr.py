@@ -26,7 +26,8 @@ parsed here and checked (references named beside each check):
     placed by pyproj at 0.999 of its disc position (METHODS.md section 7) inside
     the compressional polygons and the P axis outside (Aki & Richards 1980);
   - the same view pattern without PostGIS (stress_map_row with longitude and
-    latitude columns, the bar as WKT) gives the same bars, vertex for vertex.
+    latitude columns, the bar as WKT) gives the same columns and bars, vertex for
+    vertex, also when ogr2ogr reads it from a CSV file written by psql's \copy.
 """
 import json
 import math
@@ -203,6 +204,24 @@ for ft in layers[("fx_domain_stress", "shmax_bar")]["features"]:
     check(len(pts) == 3 and all(same(a, b) for p, q in zip(pts, ft["geometry"]["coordinates"]) for a, b in zip(p, q)),
           "%s: WKT bar %s differs from the GeoJSON bar" % (d, wkt))
     check(all(same(plain[d][k], doms[d][k]) for k in plain[d] if k in doms[d]), "%s: plain columns differ" % d)
+
+# ... and a GIS reads it from a CSV file (psql's \copy; GDAL's CSV driver takes the WKT column as geometry)
+with tempfile.TemporaryDirectory() as tmp:
+    csv, out = os.path.join(tmp, "domains.csv"), os.path.join(tmp, "domains.geojson")
+    subprocess.run(["psql", "-X", "-q", "-v", "ON_ERROR_STOP=1", "-d", DB, "-c",
+                    "\\copy (SELECT * FROM fx_domain_stress_plain ORDER BY domain) TO '%s' CSV HEADER" % csv], check=True)
+    subprocess.run(["ogr2ogr", "-f", "GeoJSON", out, csv, "-oo", "GEOM_POSSIBLE_NAMES=shmax_bar",
+                    "-oo", "KEEP_GEOM_COLUMNS=NO", "-a_srs", "EPSG:4326"], check=True)
+    with open(out) as fh:
+        from_csv = {f["properties"]["domain"]: f["geometry"] for f in json.load(fh)["features"]}
+pg_bars = {f["properties"]["domain"]: f["geometry"] for f in layers[("fx_domain_stress", "shmax_bar")]["features"]}
+check(set(from_csv) == set(pg_bars), "CSV domains %s" % sorted(from_csv))
+for d, g in pg_bars.items():
+    c = from_csv.get(d)
+    check((g is None and c is None) or (g is not None and c is not None and g["type"] == c["type"] and all(
+        same(a, b) for p, q in zip(g["coordinates"], c["coordinates"]) for a, b in zip(p, q))),
+        "%s: bar read from the CSV differs from the PostGIS one" % d)
+print("without PostGIS: stress_map_row's bars as WKT (and read by ogr2ogr from a CSV) equal the PostGIS layer's")
 
 
 # ---- mechanisms ----------------------------------------------------------------------------
