@@ -21,11 +21,22 @@ LonLat lonlat_args(FunctionCallInfo fcinfo, int k) {
   return LonLat{PG_GETARG_FLOAT8(k), PG_GETARG_FLOAT8(k + 1)};
 }
 
-// Text datum of ASCII well-known text; the string is released before any error.
+// Text datum of ASCII well-known text. The string is released before any error
+// is raised (palloc without its own out-of-memory error), so no longjmp leaves
+// a frame that owns it.
 Datum wkt_result(std::string &&s) {
-  text *t = cstring_to_text_with_len(s.data(), static_cast<int>(s.size()));
+  const Size size = VARHDRSZ + s.size();
+  void *p = size <= MaxAllocSize ? palloc_extended(size, MCXT_ALLOC_NO_OOM) : nullptr;
+  if (p == nullptr) {
+    const Size want = s.size();
+    std::string().swap(s);
+    ereport(ERROR, (errcode(ERRCODE_OUT_OF_MEMORY), errmsg("out of memory"),
+                    errdetail("A map symbol of %zu bytes of text could not be allocated.", static_cast<size_t>(want))));
+  }
+  SET_VARSIZE(p, size);
+  std::memcpy(VARDATA(p), s.data(), s.size());
   std::string().swap(s);
-  PG_RETURN_TEXT_P(t);
+  return PointerGetDatum(p);
 }
 
 }  // namespace
