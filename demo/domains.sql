@@ -5,12 +5,12 @@
 -- Interpretive results of an invented data set: see the caution in demo/README.md.
 \set QUIET on
 \i scripts/report/domain_columns.sql
-DROP TABLE IF EXISTS domain_result, domain_recovery, fold_recovery;
+DROP TABLE IF EXISTS domain_tensor, domain_result, domain_recovery, fold_recovery;
 -- Field faults: Michael inversion with 500 bootstrap resamples (fixed seed) per site,
 -- map unit and age class; focal mechanisms: the joint inversion (friction searched)
 -- with 500 resamples per site. The position of a domain is the centre of its
 -- stations or epicentres.
-CREATE TABLE domain_result AS
+CREATE TABLE domain_tensor AS
   WITH d AS (
     SELECT 'field faults'::text AS data, site, map_unit, age_class, count(*) AS n,
            stress_inversion(fault, 500, 20261) AS t,
@@ -22,9 +22,14 @@ CREATE TABLE domain_result AS
            avg(cosd(lat) * cosd(lon)), avg(cosd(lat) * sind(lon)), avg(sind(lat))
       FROM focal_event GROUP BY site)
   SELECT row_number() OVER (ORDER BY d.site, d.data, d.map_unit, d.age_class DESC) AS domain,
-         d.site, d.map_unit, d.age_class, d.data, d.n, c.*, p.lon, p.lat
-    FROM d CROSS JOIN LATERAL pg_temp.domain_columns(d.t) c
-           LEFT JOIN LATERAL pg_temp.mean_position(d.x, d.y, d.z) p ON true;
+         d.site, d.map_unit, d.age_class, d.data, d.n, d.t, p.lon, p.lat
+    FROM d LEFT JOIN LATERAL pg_temp.mean_position(d.x, d.y, d.z) p ON true;
+-- The table of the district's result: the tensor's columns (domain_columns.sql).
+-- domain_tensor keeps the tensors for the map layers (demo/gis.sql).
+CREATE TABLE domain_result AS
+  SELECT d.domain, d.site, d.map_unit, d.age_class, d.data, d.n, c.*, d.lon, d.lat
+    FROM domain_tensor d CROSS JOIN LATERAL pg_temp.domain_columns(d.t) c
+   ORDER BY d.domain;
 
 -- The planted truth of each domain: the site's younger stress for its younger faults
 -- and its focal mechanisms, the older stress for its older faults (stress_truth).

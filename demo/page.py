@@ -82,6 +82,7 @@ manifest = {
                "fault reactivation, induced seismicity, or slope or excavation stability matters, defer to "
                "site investigation, the applicable codes and licensed professionals.",
     "files": [("domains.csv", "per-domain result"), ("domains.geojson", "the same as a GIS layer"),
+              ("shmax_bars.geojson", "SHmax bars, GIS view"), ("mechanism_quadrants.geojson", "focal quadrants, GIS view"),
               ("domain_recovery.csv", "against the planted truth"), ("stress_truth.csv", "planted stress"),
               ("fault_slip_data.csv", "field faults"), ("stress_mechanisms.csv", "focal mechanisms")],
     "map_title": "District map: SHmax by domain, focal mechanisms",

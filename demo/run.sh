@@ -53,5 +53,14 @@ psql -X -v ON_ERROR_STOP=1 -f demo/domains.sql
 psql -X -q -v ON_ERROR_STOP=1 -c "COPY domain_result TO STDOUT WITH (FORMAT csv, HEADER)" >"$OUT/domains.csv"
 psql -X -q -v ON_ERROR_STOP=1 -c "COPY domain_recovery TO STDOUT WITH (FORMAT csv, HEADER)" >"$OUT/domain_recovery.csv"
 psql -X -q -v ON_ERROR_STOP=1 -At -f scripts/report/domain_geojson.sql -o "$OUT/domains.geojson"
+# The map layers through the GIS views (demo/gis.sql, PostGIS + striae_gis), read by
+# GDAL's ogr2ogr over the server connection like any GIS client.
+psql -X -v ON_ERROR_STOP=1 -f demo/gis.sql
+pgconn="PG:dbname=$DB host=$PGHOST port=$PGPORT user=$PGUSER"
+for layer in "domain_stress(geom):domain_points" "domain_stress(shmax_bar):shmax_bars" \
+             "mechanism_symbols(compressional):mechanism_quadrants" "mechanism_symbols(disc):mechanism_discs"; do
+  rm -f "$OUT/${layer##*:}.geojson"
+  ogr2ogr -f GeoJSON "$OUT/${layer##*:}.geojson" "$pgconn" "${layer%:*}"
+done
 bash demo/figures.sh "$OUT"
 /usr/bin/python3 demo/page.py "$OUT" "$(( $(date +%s) - start ))"

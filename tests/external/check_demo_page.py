@@ -101,6 +101,27 @@ for d, ft in zip(domains, feats):
 check(ok_geom, "domains.geojson: Point geometry at each row's [lon, lat], in the table's order")
 check(ok_props, "domains.geojson: every column of every row is a property with the same value")
 
+# ---- the GIS layers (demo/gis.sql, read by ogr2ogr from the PostGIS views) ------------------
+with open(os.path.join(out, "shmax_bars.geojson"), encoding="utf-8") as f:
+    bars = json.load(f).get("features", [])
+check(len(bars) == len(domains), "shmax_bars.geojson: one bar per domain (%d)" % len(bars))
+by_domain = {str(b["properties"]["domain"]): b for b in bars}
+ok_bar = True
+for d in domains:
+    b = by_domain.get(d["domain"])
+    g = (b or {}).get("geometry") or {}
+    c = g.get("coordinates") or []
+    # the bar runs end - centre - end; its centre is the domain's point; its attribute is
+    # the domain's SHmax (the CSV holds the value rounded to 0.1 degree)
+    ok_bar &= (g.get("type") == "LineString" and len(c) == 3
+               and abs(c[1][0] - float(d["lon"])) < 1e-9 and abs(c[1][1] - float(d["lat"])) < 1e-9
+               and abs(float(b["properties"]["shmax_azimuth"]) - float(d["shmax_azimuth"])) <= 0.05 + 1e-9)
+check(ok_bar, "shmax_bars.geojson: a 3-vertex LineString centred on each domain's point, with its SHmax")
+with open(os.path.join(out, "mechanism_quadrants.geojson"), encoding="utf-8") as f:
+    quads = json.load(f).get("features", [])
+check(len(quads) == len(events) and all(q["geometry"]["type"] == "MultiPolygon" for q in quads),
+      "mechanism_quadrants.geojson: a MultiPolygon for each of the %d mechanisms" % len(quads))
+
 # ---- the page on disk ----------------------------------------------------------------------
 with open(os.path.join(out, "index.html"), encoding="utf-8") as f:
     page = f.read()
