@@ -23,7 +23,8 @@ SQL_PARTS   = $(sort $(wildcard src/sql/*.sql))
 # The upgrade script from 0.1.0 is the hand-written part for objects that
 # 0.1.0 already had (src/sql/upgrade/), followed by the fragments that are
 # wholly new in 0.2.0 (listed here), so a new object is written once.
-NEW_IN_0_2_0 = src/sql/50_figures.sql src/sql/50_usability.sql src/sql/55_index.sql src/sql/60_analysis.sql
+NEW_IN_0_2_0 = src/sql/50_figures.sql src/sql/50_usability.sql src/sql/55_index.sql src/sql/60_analysis.sql \
+               src/sql/70_partial.sql
 UPGRADE_0_2_0 = src/sql/upgrade/0.1.0--0.2.0.sql $(NEW_IN_0_2_0)
 DATA        = src/sql/released/$(EXTENSION)--0.1.0.sql
 DATA_built  = $(EXTENSION)--$(EXTVERSION).sql $(EXTENSION)--0.1.0--$(EXTVERSION).sql
