@@ -421,7 +421,7 @@ PartialInfo decode_partial_text(const char *s, const PartialText &t, unsigned ch
   try {
     return check_partial(out, t.size, "partial_state_in");
   } catch (const Error &e) {
-    bad_text(s, std::string(e.what()) + (e.detail.empty() ? "" : " " + e.detail));
+    bad_text(s, std::string(e.what()) + (e.detail.empty() ? "" : "; " + e.detail));
   }
 }
 
@@ -430,7 +430,7 @@ PartialInfo check_partial_binary(const unsigned char *p, size_t len) {
     return check_partial(p, len, "partial_state_recv");
   } catch (const Error &e) {
     throw Error(ErrorKind::InvalidBinary, "invalid binary data for type partial_state",
-                std::string(e.what()) + (e.detail.empty() ? "" : " " + e.detail));
+                std::string(e.what()) + (e.detail.empty() ? "" : "; " + e.detail));
   }
 }
 
