@@ -176,11 +176,13 @@ struct MergeAgg {
 };
 static_assert(std::is_trivially_destructible<MergeAgg>::value, "palloc'd state");
 
-// "<aggregate>(partial_state)" of the aggregate this support function serves.
+// "<aggregate>(partial_state)" of the aggregate this support function serves
+// (PostgreSQL tells only plain aggregate calls, not window calls).
 void merge_name(FunctionCallInfo fcinfo, char *out, size_t cap) {
   Aggref *ref = AggGetAggref(fcinfo);
   const char *n = ref != nullptr ? get_func_name(ref->aggfnoid) : nullptr;
-  snprintf(out, cap, "%s(partial_state)", n != nullptr ? n : "merge_partial");
+  if (n != nullptr) snprintf(out, cap, "%s(partial_state)", n);
+  else snprintf(out, cap, "merge of partial_state values");
 }
 
 MergeAgg *merge_new(MemoryContext ctx, const PartialInfo &info, void *inner, const char *name) {
