@@ -29,7 +29,7 @@ SQL_PARTS   = $(sort $(wildcard src/sql/*.sql))
 # 0.1.0 already had (src/sql/upgrade/), followed by the fragments that are
 # wholly new in 0.2.0 (listed here), so a new object is written once.
 NEW_IN_0_2_0 = src/sql/50_figures.sql src/sql/50_usability.sql src/sql/55_index.sql src/sql/60_analysis.sql \
-               src/sql/65_maps.sql
+               src/sql/65_maps.sql src/sql/70_partial.sql
 UPGRADE_0_2_0 = src/sql/upgrade/0.1.0--0.2.0.sql $(NEW_IN_0_2_0)
 DATA        = src/sql/released/striae--0.1.0.sql src/gis/striae_gis--$(GIS_VERSION).sql
 DATA_built  = striae--$(EXTVERSION).sql striae--0.1.0--$(EXTVERSION).sql

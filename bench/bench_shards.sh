@@ -9,6 +9,9 @@
 #   rows shipped: partition-wise aggregation off, the rows travel to the
 #                coordinator (fetch_size 10000) and it aggregates them;
 #   one server:  the same 2 x N rows in one local table on the coordinator.
+# Then the same aggregates grouped by 10 strike bins that cut across the shards,
+# three ways: two-phase (the *_partial aggregates pushed down, grouped by shard
+# and bin, merged on the coordinator), rows shipped, one server.
 # Needs scripts/with-cluster.sh --install --clusters 3.
 set -euo pipefail
 N="${STRIAE_SHARD_ROWS:-1000000}"
@@ -48,6 +51,11 @@ INSERT INTO catalogue_local $(printf "$GEN" "'south'");
 VACUUM ANALYZE catalogue_local;
 SQL
 Q="SELECT region, stress_inversion(f), fisher_mean(p_axis(f)), orientation_tensor(fault_plane(f)) FROM %s GROUP BY region"
+BIN="width_bucket(strike(f), 0, 360, 10)"
+QX="SELECT $BIN AS bin, stress_inversion(f), fisher_mean(p_axis(f)), orientation_tensor(fault_plane(f)) FROM %s GROUP BY 1"
+TWO="SELECT bin, stress_inversion(a), fisher_mean(b), orientation_tensor(c) FROM (SELECT region, $BIN AS bin,
+  stress_inversion_partial(f) AS a, fisher_mean_partial(p_axis(f)) AS b, orientation_tensor_partial(fault_plane(f)) AS c
+  FROM catalogue GROUP BY 1, 2) s GROUP BY bin"
 on 1 "${P[@]}" -d "$DB" <<SQL
 SET max_parallel_workers_per_gather = 0;
 CREATE FUNCTION pg_temp.run_ms(q text) RETURNS float8 LANGUAGE plpgsql AS \$\$
@@ -68,6 +76,20 @@ WITH b AS (SELECT kind, min(ms) AS ms FROM runs GROUP BY kind)
 SELECT kind, round(ms::numeric, 1) AS best_ms,
        round((ms / (SELECT ms FROM b WHERE kind = 'one server'))::numeric, 2) AS ratio_to_one_server
   FROM b ORDER BY ms;
+TRUNCATE runs;
+DO \$\$ BEGIN
+  FOR i IN 1..$ROUNDS LOOP
+    SET enable_partitionwise_aggregate = on;
+    INSERT INTO runs SELECT 'two-phase (partials pushed down)', pg_temp.run_ms('$TWO');
+    INSERT INTO runs SELECT 'rows shipped', pg_temp.run_ms('$(printf "$QX" catalogue)');
+    INSERT INTO runs SELECT 'one server', pg_temp.run_ms('$(printf "$QX" catalogue_local)');
+  END LOOP;
+END \$\$;
+\echo 2 x $N rows, GROUP BY 10 strike bins across both shards, best of $ROUNDS (ms); ratio = time / one server
+WITH b AS (SELECT kind, min(ms) AS ms FROM runs GROUP BY kind)
+SELECT kind, round(ms::numeric, 1) AS best_ms,
+       round((ms / (SELECT ms FROM b WHERE kind = 'one server'))::numeric, 2) AS ratio_to_one_server
+  FROM b ORDER BY ms;
 SQL
 plan=$(on 1 "${P[@]}" -d "$DB" -At -c "SET enable_partitionwise_aggregate = on" -c "EXPLAIN (VERBOSE, COSTS OFF) $(printf "$Q" catalogue)")
 pushed=$(grep -c "Remote SQL: SELECT region, public.stress_inversion(f), public.fisher_mean(public.p_axis(f)).*GROUP BY" <<<"$plan" || true)
@@ -75,5 +97,8 @@ async=$(grep -c "Async Foreign Scan" <<<"$plan" || true)
 plan=$(on 1 "${P[@]}" -d "$DB" -At -c "SET enable_partitionwise_aggregate = off" -c "EXPLAIN (VERBOSE, COSTS OFF) $(printf "$Q" catalogue)")
 shipped=$(grep -c "Remote SQL: SELECT region, f FROM public.catalogue_part" <<<"$plan" || true)
 echo "plans: pushed down $pushed of 2 foreign scans ($async async); rows shipped $shipped of 2 foreign scans"
+plan=$(on 1 "${P[@]}" -d "$DB" -At -c "SET enable_partitionwise_aggregate = on" -c "EXPLAIN (VERBOSE, COSTS OFF) $TWO")
+partial=$(grep -c "Remote SQL: SELECT region, width_bucket(public.strike(f).*public.stress_inversion_partial(f).*GROUP BY" <<<"$plan" || true)
+echo "plans: two-phase, the partial aggregates in $partial of 2 foreign scans"
 for k in 1 2 3; do on "$k" dropdb "$DB"; done
-[ "$pushed" -eq 2 ] && [ "$async" -eq 2 ] && [ "$shipped" -eq 2 ]
+[ "$pushed" -eq 2 ] && [ "$async" -eq 2 ] && [ "$shipped" -eq 2 ] && [ "$partial" -eq 2 ]

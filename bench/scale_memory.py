@@ -5,7 +5,12 @@ stress_inversion, fisher_mean and orientation_tensor, run serially in one
 backend; the backend's peak private memory (RssAnon of /proc/<pid>/status,
 sampled every 2 ms while the query runs, minus the value just before it) is
 printed for a small and a large N. Streaming aggregates keep a fixed state per
-group, so the two peaks must agree within --check MB whatever the row count.
+group, so the two peaks must agree within --check MB whatever the row count,
+beyond what the server itself adds for the larger table: the same query with
+the built-in count(f) is measured in the same run as the baseline (its peak
+grows by about 10 MB from 10^6 to 10^7 rows on PostgreSQL 15, with no
+aggregate state to speak of), and each aggregate's growth minus the baseline's
+growth is what is checked.
 
 With --parallel, each aggregate's speed-up with 2 parallel workers (best of
 --rounds) is printed beside the speed-up of the built-in sum over the same
@@ -126,9 +131,10 @@ BEGIN t0 := clock_timestamp(); EXECUTE q INTO r; RETURN extract(epoch FROM clock
         print(f"built {name}: {n:,} rows, 1,000 groups, in {time.perf_counter() - t0:.1f} s", flush=True)
 
     print("peak backend memory (RssAnon growth, MB) of SELECT grp, agg(...) ... GROUP BY grp, serial:")
-    print(f"  {'aggregate':20s} {args.small:>12,} rows {args.large:>12,} rows   difference")
+    print(f"  {'aggregate':20s} {args.small:>12,} rows {args.large:>12,} rows   difference   beyond count's")
     worst = 0.0
-    for agg, expr in AGGS.items():
+    base_diff = None
+    for agg, expr in [("count (built-in)", "count(f)")] + list(AGGS.items()):
         peaks = []
         for name, _ in sizes:
             # a new backend for each measurement; a query over 10 rows first loads
@@ -140,9 +146,14 @@ BEGIN t0 := clock_timestamp(); EXECUTE q INTO r; RETURN extract(epoch FROM clock
             m.close()
             peaks.append((mb, dt))
         diff = peaks[1][0] - peaks[0][0]
-        worst = max(worst, abs(diff))
-        print(f"  {agg:20s} {peaks[0][0]:10.1f} MB ({peaks[0][1]:5.1f} s) {peaks[1][0]:10.1f} MB ({peaks[1][1]:5.1f} s) {diff:+8.1f} MB",
-              flush=True)
+        if base_diff is None:  # the baseline row
+            base_diff = diff
+            excess = ""
+        else:
+            worst = max(worst, abs(diff - base_diff))
+            excess = f" {diff - base_diff:+10.1f} MB"
+        print(f"  {agg:20s} {peaks[0][0]:10.1f} MB ({peaks[0][1]:5.1f} s) {peaks[1][0]:10.1f} MB ({peaks[1][1]:5.1f} s) {diff:+8.1f} MB"
+              + excess, flush=True)
 
     if args.parallel:
         print(f"speed-up with 2 parallel workers over {args.large:,} rows, GROUP BY grp (1,000 groups), best of {args.rounds}:")
@@ -169,7 +180,7 @@ BEGIN t0 := clock_timestamp(); EXECUTE q INTO r; RETURN extract(epoch FROM clock
     s.close()
     if args.check is not None:
         ok = worst <= args.check
-        print(f"largest difference {worst:.1f} MB: {'ok' if ok else 'FAIL'} (allowed {args.check} MB)")
+        print(f"largest difference beyond the baseline's {worst:.1f} MB: {'ok' if ok else 'FAIL'} (allowed {args.check} MB)")
         sys.exit(0 if ok else 1)
 
 

@@ -15,6 +15,10 @@ INSERT INTO wiring.d
   SELECT i, lineation((i * 37) % 360, (i * 13) % 90), plane((i * 53) % 360, 10 + (i * 7) % 80),
          fault_slip((i * 29) % 360, 20 + (i * 11) % 60, (i * 47) % 360 - 180)
     FROM generate_series(1, 2000) i;  -- enough rows for a parallel plan
+-- a partial_state per row, for the merge aggregates over partial_state
+ALTER TABLE wiring.d ADD COLUMN pt partial_state;
+UPDATE wiring.d d SET pt = s.pt FROM (SELECT i, stress_inversion_partial(f) AS pt FROM wiring.d GROUP BY i) s
+ WHERE s.i = d.i;
 ANALYZE wiring.d;
 
 -- The state kinds: the aggregate's argument types, the arguments of a call,
@@ -32,7 +36,8 @@ INSERT INTO kinds VALUES
   ('focal_bootstrap', 'fault_slip, float8, integer, bigint', 'f, 0.6, 5, 1', 'focal_bootstrap_accum', 'stress_keep_combine', 'stress_keep_serialize', 'stress_keep_deserialize', 'focal_stress_inversion_final'),
   ('phases', 'fault_slip, integer, bigint', 'f, 2, 1', 'stress_phases_accum', 'stress_phases_combine', 'stress_phases_serialize', 'stress_phases_deserialize', 'stress_phases_final'),
   ('misfit', 'fault_slip, stress_tensor, float8', 'f, stress_tensor(''000/00''::lineation, ''090/00''::lineation, 0.5), 20', 'misfit_summary_accum', 'misfit_summary_combine', 'misfit_summary_serialize', 'misfit_summary_deserialize', 'misfit_summary_final'),
-  ('moment', 'fault_slip', 'f', 'moment_tensor_sum_accum', 'moment_tensor_sum_combine', 'moment_tensor_sum_serialize', 'moment_tensor_sum_deserialize', 'moment_tensor_sum_final');
+  ('moment', 'fault_slip', 'f', 'moment_tensor_sum_accum', 'moment_tensor_sum_combine', 'moment_tensor_sum_serialize', 'moment_tensor_sum_deserialize', 'moment_tensor_sum_final'),
+  ('merge', 'partial_state', 'pt', 'partial_merge_accum', 'partial_merge_combine', 'partial_merge_serialize', 'partial_merge_deserialize', 'stress_inversion_merge_final');
 
 -- Create aggregate wiring.<name> of a kind with one support function replaced
 -- (role: finalfunc, combinefunc, serialfunc or deserialfunc), run it over the
@@ -52,12 +57,15 @@ BEGIN
 END $$;
 
 -- ---- final functions --------------------------------------------------------------
-SELECT k AS state, fn AS final_function, pg_temp.wired('final_' || k, k, 'finalfunc', fn) AS result
+SELECT k AS state, fn AS final_function, pg_temp.wired('final_' || k || '_' || fn, k, 'finalfunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_final'), ('tensor', 'fisher_final'), ('density', 'mean_plane_final'),
                ('stress', 'density_final'), ('dihedra', 'stress_inversion_final'),
                ('bootstrap', 'focal_stress_inversion_final'), ('focal', 'stress_bootstrap_final'),
                ('focal_bootstrap', 'right_dihedra_final'), ('phases', 'misfit_summary_final'),
-               ('misfit', 'moment_tensor_sum_final'), ('moment', 'stress_phases_final')) t(k, fn);
+               ('misfit', 'moment_tensor_sum_final'), ('moment', 'stress_phases_final'),
+               ('merge', 'stress_inversion_final'), ('fisher', 'fisher_mean_merge_final'),
+               ('stress', 'merge_partial_final'), ('density', 'partial_final_fault_slip'),
+               ('stress', 'partial_final_plane'), ('merge', 'partial_final_fault_slip')) t(k, fn);
 -- A state that striae did not make: PostgreSQL's own array_agg state.
 CREATE AGGREGATE wiring.foreign_final(plane) (SFUNC = array_agg_transfn, STYPE = internal, FINALFUNC = fold_axis_final);
 SELECT pg_temp.err('SELECT wiring.foreign_final(p)::text FROM wiring.d');
@@ -76,25 +84,28 @@ CREATE AGGREGATE wiring.plan_check(lineation) (SFUNC = fisher_lineation_accum, S
 EXPLAIN (COSTS OFF) SELECT wiring.plan_check(l) FROM wiring.d;
 SELECT (wiring.plan_check(l)).n FROM wiring.d;
 
-SELECT k AS state, fn AS combine_function, pg_temp.wired('combine_' || k, k, 'combinefunc', fn) AS result
+SELECT k AS state, fn AS combine_function, pg_temp.wired('combine_' || k || '_' || fn, k, 'combinefunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_combine'), ('tensor', 'density_combine'), ('density', 'stress_inversion_combine'),
                ('stress', 'right_dihedra_combine'), ('dihedra', 'stress_keep_combine'),
                ('bootstrap', 'fisher_combine'), ('focal', 'tensor_combine'),
                ('focal_bootstrap', 'stress_inversion_combine'), ('phases', 'misfit_summary_combine'),
-               ('misfit', 'moment_tensor_sum_combine'), ('moment', 'stress_phases_combine')) t(k, fn);
-SELECT k AS state, fn AS serialize_function, pg_temp.wired('serial_' || k, k, 'serialfunc', fn) AS result
+               ('misfit', 'moment_tensor_sum_combine'), ('moment', 'stress_phases_combine'),
+               ('merge', 'stress_inversion_combine'), ('stress', 'partial_merge_combine')) t(k, fn);
+SELECT k AS state, fn AS serialize_function, pg_temp.wired('serial_' || k || '_' || fn, k, 'serialfunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_serialize'), ('tensor', 'stress_keep_serialize'), ('density', 'fisher_serialize'),
                ('stress', 'density_serialize'), ('dihedra', 'stress_inversion_serialize'),
                ('bootstrap', 'right_dihedra_serialize'), ('focal', 'tensor_serialize'),
                ('focal_bootstrap', 'fisher_serialize'), ('phases', 'moment_tensor_sum_serialize'),
-               ('misfit', 'stress_phases_serialize'), ('moment', 'misfit_summary_serialize')) t(k, fn);
+               ('misfit', 'stress_phases_serialize'), ('moment', 'misfit_summary_serialize'),
+               ('merge', 'stress_inversion_serialize'), ('dihedra', 'partial_merge_serialize')) t(k, fn);
 -- a deserialize function handed another aggregate's serialized state
-SELECT k AS state, fn AS deserialize_function, pg_temp.wired('deserial_' || k, k, 'deserialfunc', fn) AS result
+SELECT k AS state, fn AS deserialize_function, pg_temp.wired('deserial_' || k || '_' || fn, k, 'deserialfunc', fn) AS result
   FROM (VALUES ('fisher', 'tensor_deserialize'), ('tensor', 'density_deserialize'),
                ('density', 'stress_inversion_deserialize'), ('stress', 'right_dihedra_deserialize'),
                ('dihedra', 'stress_keep_deserialize'), ('focal', 'fisher_deserialize'),
                ('phases', 'misfit_summary_deserialize'), ('misfit', 'moment_tensor_sum_deserialize'),
-               ('moment', 'stress_phases_deserialize')) t(k, fn);
+               ('moment', 'stress_phases_deserialize'), ('merge', 'stress_inversion_deserialize'),
+               ('stress', 'partial_merge_deserialize')) t(k, fn);
 RESET parallel_setup_cost;
 RESET parallel_tuple_cost;
 RESET min_parallel_table_scan_size;
@@ -132,6 +143,8 @@ BEGIN
                  'RETURNS internal AS %L, %L LANGUAGE C', lib, 'focal_stress_inversion_friction_accum');
   EXECUTE format('CREATE FUNCTION wiring.moment_as_misfit(internal, fault_slip, stress_tensor, float8) '
                  'RETURNS internal AS %L, %L LANGUAGE C', lib, 'moment_tensor_sum_accum');
+  EXECUTE format('CREATE FUNCTION wiring.moment_as_merge(internal, partial_state) '
+                 'RETURNS internal AS %L, %L LANGUAGE C', lib, 'moment_tensor_sum_accum');
 END $$;
 SELECT inv AS transition_function, fwd AS state_from, pg_temp.moving('moving_' || n, args, call, fwd, inv, final) AS result
   FROM (VALUES
@@ -152,7 +165,10 @@ SELECT inv AS transition_function, fwd AS state_from, pg_temp.moving('moving_' |
     (14, 'fault_slip, float8', 'f, 10', 'right_dihedra_accum', 'moment_tensor_sum_weighted_accum', 'right_dihedra_final'),
     (15, 'fault_slip, integer, bigint', 'f, 5, 1', 'stress_bootstrap_accum', 'stress_phases_accum', 'stress_bootstrap_final'),
     (16, 'fault_slip, stress_tensor, float8', 'f, stress_tensor(''000/00''::lineation, ''090/00''::lineation, 0.5), 20',
-     'wiring.moment_as_misfit', 'misfit_summary_accum', 'moment_tensor_sum_final')) t(n, args, call, fwd, inv, final);
+     'wiring.moment_as_misfit', 'misfit_summary_accum', 'moment_tensor_sum_final'),
+    -- the moment state is made from NULL rows, so the partial_state argument is never read as a fault_slip
+    (17, 'partial_state', 'NULL::partial_state', 'wiring.moment_as_merge', 'partial_merge_accum', 'moment_tensor_sum_final'),
+    (18, 'partial_state', 'pt', 'partial_merge_accum', 'wiring.moment_as_merge', 'stress_inversion_merge_final')) t(n, args, call, fwd, inv, final);
 
 -- The backend is still alive and the real aggregates still work.
 SELECT (fisher_mean(l)).n, fold_axis(p) IS NOT NULL AS fold, stress_inversion(f) IS NOT NULL AS stress,

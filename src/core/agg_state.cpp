@@ -3,6 +3,7 @@
 
 #include "bootstrap.hpp"
 #include "density.hpp"
+#include "phases.hpp"
 
 #include <cmath>
 #include <cstring>
@@ -27,13 +28,14 @@ const char *state_kind_aggregates(StateKind k) {
     case StateKind::MomentSum: return "moment_tensor_sum";
     case StateKind::FigureLayer: return "the figure layer aggregates (net_poles, net_faults, ...)";
     case StateKind::FigureStack: return "net_stack";
+    case StateKind::PartialMerge: return "the two-phase merges over partial_state (fisher_mean(partial_state), ..., merge_partial)";
   }
   return "no striae aggregate";
 }
 
 namespace {
 
-bool known_kind(uint32_t k) { return k >= 1 && k <= 13; }
+bool known_kind(uint32_t k) { return k >= 1 && k <= 14; }
 
 }  // namespace
 
@@ -93,6 +95,9 @@ constexpr uint32_t kStressMagic = 0x53535431;    // "SST1"
 constexpr uint32_t kDensityMagic = 0x53444e31;   // "SDN1"
 constexpr uint32_t kDihedraMagic = 0x53524432;   // "SRD2": counts in half data since 0.2.0
 constexpr uint32_t kKeepMagic = 0x53534b31;      // "SSK1"
+constexpr uint32_t kPhaseMagic = 0x53504831;     // "SPH1"
+constexpr uint32_t kMisfitMagic = 0x534d5331;    // "SMS1"
+constexpr uint32_t kMomentMagic = 0x534d5431;    // "SMT1"
 
 template <class S>
 void write_fixed(uint32_t magic, const S &s, unsigned char *out) {
@@ -122,6 +127,10 @@ void write_stress_state(const StressAccum &s, unsigned char *out) {
   stress_validate(s);
   write_fixed(kStressMagic, s, out);
 }
+void write_moment_state(const MomentAccum &s, unsigned char *out) {
+  moment_validate(s);
+  write_fixed(kMomentMagic, s, out);
+}
 
 void read_fisher_state(const unsigned char *p, size_t len, FisherState &out, const char *fn) {
   read_fixed(kFisherMagic, StateKind::Fisher, p, len, out, fn);
@@ -134,6 +143,10 @@ void read_tensor_state(const unsigned char *p, size_t len, TensorState &out, con
 void read_stress_state(const unsigned char *p, size_t len, StressAccum &out, const char *fn) {
   read_fixed(kStressMagic, StateKind::StressLinear, p, len, out, fn);
   stress_validate(out);
+}
+void read_moment_state(const unsigned char *p, size_t len, MomentAccum &out, const char *fn) {
+  read_fixed(kMomentMagic, StateKind::MomentSum, p, len, out, fn);
+  moment_validate(out);
 }
 
 // ---- density_grid ---------------------------------------------------------------------
@@ -307,6 +320,117 @@ void check_keep_data(const SlipDatum *data, int64_t count) {
       throw Error(ErrorKind::BadState, std::string("invalid stress inversion state: ") + e.what());
     }
   }
+}
+
+// ---- stress_phases ----------------------------------------------------------------------
+
+void check_phase_params(const PhaseParams &h) {
+  PhaseOptions o;
+  o.phases = h.phases;
+  o.starts = h.starts;
+  try {
+    check_phase_options(o);
+  } catch (const Error &e) {
+    throw Error(ErrorKind::BadState, std::string("invalid stress_phases state: ") + e.what());
+  }
+  if (h.count < 0 || h.count > static_cast<int64_t>(kMaxBootstrapData))
+    throw Error(ErrorKind::BadState, "invalid stress_phases state: bad count");
+}
+
+size_t phase_serial_size(int64_t count) {
+  return kPhaseSerialHeader + sizeof(SlipDatum) * static_cast<size_t>(count);
+}
+
+void write_phase_state(const PhaseParams &h, const SlipDatum *data, unsigned char *out) {
+  check_phase_params(h);
+  store(out, kPhaseMagic);
+  store(out + 4, h.phases);
+  store(out + 8, h.starts);
+  store(out + 12, h.seed);
+  store(out + 20, h.count);
+  if (h.count > 0) std::memcpy(out + kPhaseSerialHeader, data, sizeof(SlipDatum) * static_cast<size_t>(h.count));
+}
+
+PhaseParams read_phase_header(const unsigned char *p, size_t len, const char *fn) {
+  if (len < kPhaseSerialHeader || load<uint32_t>(p) != kPhaseMagic) not_serial(fn, StateKind::Phases);
+  PhaseParams h;
+  h.phases = load<int32_t>(p + 4);
+  h.starts = load<int32_t>(p + 8);
+  h.seed = load<int64_t>(p + 12);
+  h.count = load<int64_t>(p + 20);
+  // count is bounded before the length is computed from it.
+  if (h.count < 0 || h.count > static_cast<int64_t>(kMaxBootstrapData) || len != phase_serial_size(h.count))
+    not_serial(fn, StateKind::Phases);
+  check_phase_params(h);
+  return h;
+}
+
+void read_phase_data(const unsigned char *p, size_t len, const PhaseParams &h, SlipDatum *out, const char *fn) {
+  if (len != phase_serial_size(h.count)) not_serial(fn, StateKind::Phases);
+  if (h.count > 0) std::memcpy(out, p + kPhaseSerialHeader, sizeof(SlipDatum) * static_cast<size_t>(h.count));
+  check_phase_data(out, h.count);
+}
+
+void check_phase_data(const SlipDatum *data, int64_t count) {
+  for (int64_t i = 0; i < count; ++i) {
+    if ((i & 0xffff) == 0xffff) poll_interrupts();
+    try {
+      check_slip_datum(data[i].n, data[i].u);
+    } catch (const Error &e) {
+      throw Error(ErrorKind::BadState, std::string("invalid stress_phases state: ") + e.what());
+    }
+  }
+}
+
+// ---- misfit_summary ----------------------------------------------------------------------
+
+void check_misfit_params(const MisfitParams &h) {
+  try {
+    check_misfit_threshold(h.threshold);
+  } catch (const Error &e) {
+    throw Error(ErrorKind::BadState, std::string("invalid misfit_summary state: ") + e.what());
+  }
+  if (h.count < 0 || h.count > kMaxMisfits || h.undefined < 0 || h.undefined > kMaxMisfitUndefined)
+    throw Error(ErrorKind::BadState, "invalid misfit_summary state: bad count");
+}
+
+void check_misfit_values(const double *v, int64_t count) {
+  for (int64_t i = 0; i < count; ++i) {
+    if ((i & 0xfffff) == 0xfffff) poll_interrupts();
+    if (!(v[i] >= 0 && v[i] <= 180))
+      throw Error(ErrorKind::BadState, "invalid misfit_summary state: misfit outside 0..180");
+  }
+}
+
+size_t misfit_serial_size(int64_t count) {
+  return kMisfitSerialHeader + sizeof(double) * static_cast<size_t>(count);
+}
+
+void write_misfit_state(const MisfitParams &h, const double *values, unsigned char *out) {
+  check_misfit_params(h);
+  store(out, kMisfitMagic);
+  store(out + 4, h.threshold);
+  store(out + 12, h.undefined);
+  store(out + 20, h.count);
+  if (h.count > 0) std::memcpy(out + kMisfitSerialHeader, values, sizeof(double) * static_cast<size_t>(h.count));
+}
+
+MisfitParams read_misfit_header(const unsigned char *p, size_t len, const char *fn) {
+  if (len < kMisfitSerialHeader || load<uint32_t>(p) != kMisfitMagic) not_serial(fn, StateKind::MisfitSummary);
+  MisfitParams h;
+  h.threshold = load<double>(p + 4);
+  h.undefined = load<int64_t>(p + 12);
+  h.count = load<int64_t>(p + 20);
+  if (h.count < 0 || h.count > kMaxMisfits || len != misfit_serial_size(h.count))
+    not_serial(fn, StateKind::MisfitSummary);
+  check_misfit_params(h);
+  return h;
+}
+
+void read_misfit_values(const unsigned char *p, size_t len, const MisfitParams &h, double *out, const char *fn) {
+  if (len != misfit_serial_size(h.count)) not_serial(fn, StateKind::MisfitSummary);
+  if (h.count > 0) std::memcpy(out, p + kMisfitSerialHeader, sizeof(double) * static_cast<size_t>(h.count));
+  check_misfit_values(out, h.count);
 }
 
 }  // namespace striae

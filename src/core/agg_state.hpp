@@ -19,6 +19,7 @@
 #pragma once
 
 #include "dihedra.hpp"
+#include "moment.hpp"
 #include "stats.hpp"
 #include "stress.hpp"
 
@@ -46,6 +47,7 @@ enum class StateKind : uint32_t {
   MomentSum = 11,          // moment_tensor_sum
   FigureLayer = 12,        // net_great_circles, net_poles, net_lines, net_faults, net_hoeppener, net_pt_axes, net_dihedra
   FigureStack = 13,        // net_stack
+  PartialMerge = 14,       // the two-phase merges over partial_state (partial.hpp)
 };
 
 // The first 8 bytes of every in-memory aggregate state.
@@ -148,5 +150,53 @@ void read_keep_data(const unsigned char *p, size_t len, const KeepParams &h, Sli
                     const char *fn);
 // BadState unless every datum passes check_slip_datum (polls for interrupts).
 void check_keep_data(const SlipDatum *data, int64_t count);
+
+// stress_phases: magic, phases (int32), starts (int32), seed (int64), count
+// (int64), then count SlipDatum. The data are the group's, unsorted.
+constexpr size_t kPhaseSerialHeader = 4 + 4 + 4 + 8 + 8;
+struct PhaseParams {
+  int32_t phases;
+  int32_t starts;
+  int64_t seed;   // any value
+  int64_t count;  // data kept
+};
+// BadState unless phases and starts are what check_phase_options accepts and
+// 0 <= count <= kMaxBootstrapData.
+void check_phase_params(const PhaseParams &h);
+size_t phase_serial_size(int64_t count);
+void write_phase_state(const PhaseParams &h, const SlipDatum *data, unsigned char *out);
+// Header: magic, exact length, check_phase_params. Then the caller allocates
+// count data and reads them (each checked with check_slip_datum: BadState).
+PhaseParams read_phase_header(const unsigned char *p, size_t len, const char *fn);
+void read_phase_data(const unsigned char *p, size_t len, const PhaseParams &h, SlipDatum *out, const char *fn);
+// BadState unless every datum passes check_slip_datum (polls for interrupts).
+void check_phase_data(const SlipDatum *data, int64_t count);
+
+// misfit_summary: magic, threshold (float8), undefined (int64), count (int64),
+// then count misfits (float8, degrees). At most kMaxMisfits misfits a group
+// (80 MB): the median needs them all.
+constexpr int64_t kMaxMisfits = 10000000;
+// Largest count of undefined misfits (counts convert to double exactly).
+constexpr int64_t kMaxMisfitUndefined = int64_t(1) << 53;
+constexpr size_t kMisfitSerialHeader = 4 + 8 + 8 + 8;
+struct MisfitParams {
+  double threshold;   // as check_misfit_threshold accepts
+  int64_t undefined;  // data whose misfit is undefined
+  int64_t count;      // misfits kept
+};
+// BadState unless the threshold is valid, 0 <= undefined <= kMaxMisfitUndefined
+// and 0 <= count <= kMaxMisfits.
+void check_misfit_params(const MisfitParams &h);
+// BadState unless every misfit lies in 0..180 (polls for interrupts).
+void check_misfit_values(const double *v, int64_t count);
+size_t misfit_serial_size(int64_t count);
+void write_misfit_state(const MisfitParams &h, const double *values, unsigned char *out);
+MisfitParams read_misfit_header(const unsigned char *p, size_t len, const char *fn);
+void read_misfit_values(const unsigned char *p, size_t len, const MisfitParams &h, double *out, const char *fn);
+
+// moment_tensor_sum: magic, then the raw MomentAccum (moment_validate).
+constexpr size_t kMomentSerialSize = 4 + sizeof(MomentAccum);
+void write_moment_state(const MomentAccum &s, unsigned char *out);  // kMomentSerialSize bytes
+void read_moment_state(const unsigned char *p, size_t len, MomentAccum &out, const char *fn);
 
 }  // namespace striae

@@ -23,6 +23,7 @@ enum class ErrorKind {
   InvalidParameter,  // 22023 invalid_parameter_value
   DataError,         // 22000 data_exception
   BadState,          // 22000 too, for a malformed aggregate state handed in from SQL
+  InvalidBinary,     // 22P03 invalid_binary_representation (binary input of a value)
 };
 
 // The one exception type src/core throws on purpose. message is the primary

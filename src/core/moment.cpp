@@ -74,6 +74,8 @@ void moment_combine(MomentAccum &into, const MomentAccum &from) {
   }
   if (into.weighted != from.weighted)
     throw Error(ErrorKind::InvalidParameter, "cannot mix weighted and unweighted moment sums");
+  if (into.count > kMaxMomentData - from.count)
+    throw Error(ErrorKind::DataError, "too many data for a moment sum (limit 2^53)");
   for (int i = 0; i < 6; ++i) {
     neumaier(into.m[i], into.mc[i], from.m[i]);
     into.mc[i] += from.mc[i];
@@ -89,6 +91,7 @@ void moment_validate(const MomentAccum &s) {
     throw Error(ErrorKind::BadState, std::string("invalid moment sum state: ") + what);
   };
   if (s.count < 0) bad("negative count");
+  if (s.count > kMaxMomentData) bad("count exceeds 2^53");
   if (s.reserved != 0) bad("reserved field is not zero");
   double all[20];
   std::memcpy(all, s.m, sizeof s.m);

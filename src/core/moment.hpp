@@ -57,6 +57,10 @@ static_assert(std::is_trivially_copyable<MomentAccum>::value &&
                   std::is_trivially_destructible<MomentAccum>::value,
               "aggregate state lives in palloc memory");
 
+// Largest count a state may hold (counts convert to double exactly; combine
+// checks it, so states merged from partials cannot overflow).
+constexpr int64_t kMaxMomentData = int64_t(1) << 53;
+
 void moment_init(MomentAccum &s);
 // Add one datum with scalar moment m0 (> 0, finite); weighted says whether m0 came
 // from a magnitude. InvalidParameter if weighted differs from earlier rows (the two
@@ -65,7 +69,8 @@ void moment_add(MomentAccum &s, const FaultSlip &f, double m0, bool weighted);
 // into += from (InvalidParameter if one is weighted and the other not).
 void moment_combine(MomentAccum &into, const MomentAccum &from);
 // BadState unless the state could come from adds: count >= 0, finite sums, the
-// empty state all zero with weighted = -1, m0 > 0 otherwise, reserved 0.
+// empty state all zero with weighted = -1, m0 > 0 otherwise, reserved 0,
+// count <= kMaxMomentData.
 void moment_validate(const MomentAccum &s);
 
 struct MomentSummary {

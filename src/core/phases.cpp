@@ -234,12 +234,35 @@ void check_misfit_threshold(double threshold) {
     throw Error(ErrorKind::InvalidParameter, "misfit threshold must be between 0 and 180 degrees");
 }
 
+namespace {
+
+// Sorts ascending, polling for interrupts between sorted runs and merges (a
+// group may keep 10^7 misfits).
+void sort_polled(double *v, size_t n) {
+  constexpr size_t kRun = size_t(1) << 16;
+  for (size_t i = 0; i < n; i += kRun) {
+    std::sort(v + i, v + std::min(n, i + kRun));
+    poll_interrupts();
+  }
+  for (size_t w = kRun; w < n; w *= 2)
+    for (size_t i = 0; i + w < n; i += 2 * w) {
+      std::inplace_merge(v + i, v + i + w, v + std::min(n, i + 2 * w));
+      poll_interrupts();
+    }
+}
+
+}  // namespace
+
+// The misfits are sorted before they are summed, so the mean is a function of
+// the set of misfits alone (not of the order rows arrived in: serial, parallel
+// and two-phase runs give the same bits).
 bool summarise_misfits(double *v, size_t count, int64_t undefined, double threshold, MisfitSummary &out) {
   check_misfit_threshold(threshold);
   std::memset(&out, 0, sizeof out);
   out.count = static_cast<int64_t>(count);
   out.undefined = undefined;
   if (count == 0) return false;
+  sort_polled(v, count);
   double sum = 0.0;
   for (size_t i = 0; i < count; ++i) {
     if ((i & (kPollEvery - 1)) == kPollEvery - 1) poll_interrupts();
@@ -248,14 +271,7 @@ bool summarise_misfits(double *v, size_t count, int64_t undefined, double thresh
   }
   out.mean = sum / static_cast<double>(count);
   const size_t mid = count / 2;
-  std::nth_element(v, v + mid, v + count);
-  const double upper = v[mid];
-  if (count % 2 == 1) {
-    out.median = upper;
-  } else {
-    const double lower = *std::max_element(v, v + mid);
-    out.median = 0.5 * (lower + upper);
-  }
+  out.median = count % 2 == 1 ? v[mid] : 0.5 * (v[mid - 1] + v[mid]);
   return true;
 }
 

@@ -74,8 +74,9 @@ int best_phase(const Vec3 &n, const Vec3 &u, const StressTensor *tensors, size_t
 
 // Misfit summary of a group of data: mean and median of the defined misfits
 // (degrees), how many exceed the threshold, how many were undefined. values is
-// reordered (partial sort for the median; the median of an even count is the
-// mean of the two middle values).
+// sorted ascending first, so the result depends on the set of misfits only,
+// not on their order (the median of an even count is the mean of the two
+// middle values).
 struct MisfitSummary {
   int64_t count;      // defined misfits
   int64_t undefined;  // data whose misfit is undefined

@@ -16,11 +16,6 @@ using namespace striae_pg;
 
 namespace {
 
-[[noreturn]] void bad_serial(const char *fn) {
-  ereport(ERROR, (errcode(ERRCODE_DATA_EXCEPTION), errmsg("%s: not a serialized state of this aggregate", fn)));
-  pg_unreachable();
-}
-
 // Build a composite result of the function's declared row type.
 Datum composite(FunctionCallInfo fcinfo, Datum *values, bool *nulls) {
   TupleDesc desc;
@@ -53,7 +48,6 @@ std::vector<StressTensor> tensor_array(FunctionCallInfo fcinfo, int k) {
 
 // ---- stress_phases: state keeping the data ----------------------------------------
 
-constexpr uint32 kPhaseMagic = 0x53504831;  // "SPH1"
 constexpr int64 kPhaseInitialCap = 64;
 
 struct PhaseAgg {
@@ -66,7 +60,6 @@ struct PhaseAgg {
   SlipDatum *data;
 };
 static_assert(std::is_trivially_destructible<PhaseAgg>::value, "palloc'd state");
-constexpr Size kPhaseHeader = 4 + 4 + 4 + 8 + 8;  // magic phases starts seed count
 
 PhaseAgg *phase_new(MemoryContext ctx, int32 phases, int32 starts, int64 seed, int64 cap) {
   PhaseAgg *a = static_cast<PhaseAgg *>(MemoryContextAlloc(ctx, sizeof(PhaseAgg)));
@@ -103,15 +96,13 @@ void phase_same(const PhaseAgg *a, int32 phases, int32 starts, int64 seed) {
                     errmsg("stress_phases parameters must be the same for every row of a group")));
 }
 
+PhaseParams phase_params(const PhaseAgg *a) { return PhaseParams{a->phases, a->starts, a->seed, a->count}; }
+
 void phase_validate(const PhaseAgg *a) {
   guarded([&] {
-    PhaseOptions o;
-    o.phases = a->phases;
-    o.starts = a->starts;
-    check_phase_options(o);
-    if (a->count < 0 || a->count > a->cap || a->count > static_cast<int64>(kMaxBootstrapData))
-      throw Error(ErrorKind::BadState, "invalid stress_phases state: bad count");
-    for (int64 i = 0; i < a->count; ++i) check_slip_datum(a->data[i].n, a->data[i].u);
+    check_phase_params(phase_params(a));
+    if (a->count > a->cap) throw Error(ErrorKind::BadState, "invalid stress_phases state: bad count");
+    check_phase_data(a->data, a->count);
   });
 }
 
@@ -146,9 +137,7 @@ Datum phases_accum(FunctionCallInfo fcinfo, bool with_starts) {
 
 // ---- misfit_summary: state keeping the misfits -----------------------------------------
 
-constexpr uint32 kMisfitMagic = 0x534d5331;  // "SMS1"
-// Misfits kept per group: 8 bytes each, at most 10^7 (80 MB).
-constexpr int64 kMaxMisfits = 10000000;
+// Misfits kept per group: 8 bytes each, at most kMaxMisfits = 10^7 (80 MB, agg_state.hpp).
 
 struct MisfitAgg {
   StateTag tag;  // StateKind::MisfitSummary
@@ -159,7 +148,6 @@ struct MisfitAgg {
   double *values;
 };
 static_assert(std::is_trivially_destructible<MisfitAgg>::value, "palloc'd state");
-constexpr Size kMisfitHeader = 4 + 8 + 8 + 8;  // magic threshold undefined count
 
 MisfitAgg *misfit_new(MemoryContext ctx, double threshold, int64 cap) {
   MisfitAgg *a = static_cast<MisfitAgg *>(MemoryContextAlloc(ctx, sizeof(MisfitAgg)));
@@ -188,20 +176,17 @@ void misfit_reserve(MisfitAgg *a, int64 need) {
   a->cap = cap;
 }
 
+MisfitParams misfit_params(const MisfitAgg *a) { return MisfitParams{a->threshold, a->undefined, a->count}; }
+
 void misfit_validate(const MisfitAgg *a) {
   guarded([&] {
-    check_misfit_threshold(a->threshold);
-    if (a->count < 0 || a->count > a->cap || a->count > kMaxMisfits || a->undefined < 0)
-      throw Error(ErrorKind::BadState, "invalid misfit_summary state: bad count");
-    for (int64 i = 0; i < a->count; ++i)
-      if (!(a->values[i] >= 0 && a->values[i] <= 180))
-        throw Error(ErrorKind::BadState, "invalid misfit_summary state: misfit outside 0..180");
+    check_misfit_params(misfit_params(a));
+    if (a->count > a->cap) throw Error(ErrorKind::BadState, "invalid misfit_summary state: bad count");
+    check_misfit_values(a->values, a->count);
   });
 }
 
 // ---- moment_tensor_sum: fixed state -----------------------------------------------------
-
-constexpr uint32 kMomentMagic = 0x534d5431;  // "SMT1"
 
 // In memory: the kind tag and the core's sums.
 struct MomentAgg {
@@ -242,6 +227,42 @@ Datum moment_accum(FunctionCallInfo fcinfo, bool weighted) {
 STRIAE_FUNCTION(stress_phases_accum) { return phases_accum(fcinfo, false); }
 STRIAE_FUNCTION(stress_phases_starts_accum) { return phases_accum(fcinfo, true); }
 
+namespace {
+
+void *phase_read(MemoryContext ctx, const unsigned char *p, size_t len, const char *fn) {
+  const PhaseParams h = guarded([&] { return read_phase_header(p, len, fn); });
+  PhaseAgg *a = phase_new(ctx, h.phases, h.starts, h.seed, h.count);
+  guarded([&] { read_phase_data(p, len, h, a->data, fn); });
+  a->count = h.count;
+  return a;
+}
+
+// Appends from's data to into (repalloc keeps into's data in its own context).
+void *phase_combine_states(MemoryContext, void *into, void *from, const char *) {
+  PhaseAgg *a = static_cast<PhaseAgg *>(into);
+  const PhaseAgg *b = static_cast<const PhaseAgg *>(from);
+  phase_validate(b);
+  phase_validate(a);
+  phase_same(a, b->phases, b->starts, b->seed);
+  phase_reserve(a, a->count + b->count);
+  if (b->count > 0) std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
+  a->count += b->count;
+  return a;
+}
+
+size_t phase_size(void *s, const char *) {
+  const PhaseAgg *a = static_cast<const PhaseAgg *>(s);
+  phase_validate(a);
+  return phase_serial_size(a->count);
+}
+
+void phase_write(void *s, unsigned char *out, const char *) {
+  const PhaseAgg *a = static_cast<const PhaseAgg *>(s);
+  guarded([&] { write_phase_state(phase_params(a), a->data, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(stress_phases_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_phases_combine");
   PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_combine");
@@ -250,59 +271,21 @@ STRIAE_FUNCTION(stress_phases_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
-  phase_validate(b);
   if (a == nullptr) {
+    phase_validate(b);
     a = phase_new(ctx, b->phases, b->starts, b->seed, b->count);
-  } else {
-    phase_validate(a);
-    phase_same(a, b->phases, b->starts, b->seed);
   }
-  phase_reserve(a, a->count + b->count);
-  std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
-  a->count += b->count;
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(phase_combine_states(ctx, a, b, "stress_phases_combine"));
 }
 
 STRIAE_FUNCTION(stress_phases_serialize) {
   agg_context(fcinfo, "stress_phases_serialize");
-  const PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_serialize");
-  phase_validate(a);
-  const Size size = VARHDRSZ + kPhaseHeader + sizeof(SlipDatum) * a->count;
-  bytea *out = static_cast<bytea *>(palloc(size));
-  SET_VARSIZE(out, size);
-  char *p = VARDATA(out);
-  std::memcpy(p, &kPhaseMagic, 4);
-  std::memcpy(p + 4, &a->phases, 4);
-  std::memcpy(p + 8, &a->starts, 4);
-  std::memcpy(p + 12, &a->seed, 8);
-  std::memcpy(p + 20, &a->count, 8);
-  std::memcpy(p + kPhaseHeader, a->data, sizeof(SlipDatum) * a->count);
-  PG_RETURN_BYTEA_P(out);
+  PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kPhaseOps, a, "stress_phases_serialize"));
 }
 
 STRIAE_FUNCTION(stress_phases_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "stress_phases_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  const Size len = VARSIZE_ANY_EXHDR(in);
-  const char *p = VARDATA_ANY(in);
-  uint32 magic = 0;
-  int32 phases = 0, starts = 0;
-  int64 seed = 0, count = -1;
-  if (len >= kPhaseHeader) {
-    std::memcpy(&magic, p, 4);
-    std::memcpy(&phases, p + 4, 4);
-    std::memcpy(&starts, p + 8, 4);
-    std::memcpy(&seed, p + 12, 8);
-    std::memcpy(&count, p + 20, 8);
-  }
-  if (magic != kPhaseMagic || count < 0 || count > static_cast<int64>(kMaxBootstrapData) ||
-      len != kPhaseHeader + sizeof(SlipDatum) * static_cast<Size>(count))
-    bad_serial("stress_phases_deserialize");
-  PhaseAgg *a = phase_new(ctx, phases, starts, seed, count);
-  std::memcpy(a->data, p + kPhaseHeader, sizeof(SlipDatum) * count);
-  a->count = count;
-  phase_validate(a);
-  PG_RETURN_POINTER(a);
+  return deserialize_with(fcinfo, kPhaseOps, "stress_phases_deserialize");
 }
 
 // NULL for an empty group, fewer than 4 k data, or no eligible division (phases.hpp).
@@ -381,6 +364,51 @@ STRIAE_FUNCTION(misfit_summary_accum) {
   PG_RETURN_POINTER(a);
 }
 
+namespace {
+
+[[noreturn]] void misfit_threshold_mismatch() {
+  ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                  errmsg("misfit_summary threshold must be the same for every row of a group")));
+  pg_unreachable();
+}
+
+void *misfit_read(MemoryContext ctx, const unsigned char *p, size_t len, const char *fn) {
+  const MisfitParams h = guarded([&] { return read_misfit_header(p, len, fn); });
+  MisfitAgg *a = misfit_new(ctx, h.threshold, h.count);
+  guarded([&] { read_misfit_values(p, len, h, a->values, fn); });
+  a->count = h.count;
+  a->undefined = h.undefined;
+  return a;
+}
+
+void *misfit_combine_states(MemoryContext, void *into, void *from, const char *) {
+  MisfitAgg *a = static_cast<MisfitAgg *>(into);
+  const MisfitAgg *b = static_cast<const MisfitAgg *>(from);
+  misfit_validate(b);
+  misfit_validate(a);
+  if (a->threshold != b->threshold) misfit_threshold_mismatch();
+  if (a->undefined > kMaxMisfitUndefined - b->undefined)
+    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE), errmsg("too many data for misfit_summary")));
+  misfit_reserve(a, a->count + b->count);
+  if (b->count > 0) std::memcpy(a->values + a->count, b->values, sizeof(double) * b->count);
+  a->count += b->count;
+  a->undefined += b->undefined;
+  return a;
+}
+
+size_t misfit_size(void *s, const char *) {
+  const MisfitAgg *a = static_cast<const MisfitAgg *>(s);
+  misfit_validate(a);
+  return misfit_serial_size(a->count);
+}
+
+void misfit_write(void *s, unsigned char *out, const char *) {
+  const MisfitAgg *a = static_cast<const MisfitAgg *>(s);
+  guarded([&] { write_misfit_state(misfit_params(a), a->values, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(misfit_summary_combine) {
   MemoryContext ctx = agg_context(fcinfo, "misfit_summary_combine");
   MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_combine");
@@ -389,61 +417,21 @@ STRIAE_FUNCTION(misfit_summary_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
-  misfit_validate(b);
   if (a == nullptr) {
+    misfit_validate(b);
     a = misfit_new(ctx, b->threshold, b->count);
-  } else {
-    misfit_validate(a);
-    if (a->threshold != b->threshold)
-      ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
-                      errmsg("misfit_summary threshold must be the same for every row of a group")));
   }
-  misfit_reserve(a, a->count + b->count);
-  std::memcpy(a->values + a->count, b->values, sizeof(double) * b->count);
-  a->count += b->count;
-  a->undefined += b->undefined;
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(misfit_combine_states(ctx, a, b, "misfit_summary_combine"));
 }
 
 STRIAE_FUNCTION(misfit_summary_serialize) {
   agg_context(fcinfo, "misfit_summary_serialize");
-  const MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_serialize");
-  misfit_validate(a);
-  const Size size = VARHDRSZ + kMisfitHeader + sizeof(double) * a->count;
-  bytea *out = static_cast<bytea *>(palloc(size));
-  SET_VARSIZE(out, size);
-  char *p = VARDATA(out);
-  std::memcpy(p, &kMisfitMagic, 4);
-  std::memcpy(p + 4, &a->threshold, 8);
-  std::memcpy(p + 12, &a->undefined, 8);
-  std::memcpy(p + 20, &a->count, 8);
-  std::memcpy(p + kMisfitHeader, a->values, sizeof(double) * a->count);
-  PG_RETURN_BYTEA_P(out);
+  MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kMisfitOps, a, "misfit_summary_serialize"));
 }
 
 STRIAE_FUNCTION(misfit_summary_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "misfit_summary_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  const Size len = VARSIZE_ANY_EXHDR(in);
-  const char *p = VARDATA_ANY(in);
-  uint32 magic = 0;
-  double threshold = 0;
-  int64 undefined = 0, count = -1;
-  if (len >= kMisfitHeader) {
-    std::memcpy(&magic, p, 4);
-    std::memcpy(&threshold, p + 4, 8);
-    std::memcpy(&undefined, p + 12, 8);
-    std::memcpy(&count, p + 20, 8);
-  }
-  if (magic != kMisfitMagic || count < 0 || count > kMaxMisfits ||
-      len != kMisfitHeader + sizeof(double) * static_cast<Size>(count))
-    bad_serial("misfit_summary_deserialize");
-  MisfitAgg *a = misfit_new(ctx, threshold, count);
-  std::memcpy(a->values, p + kMisfitHeader, sizeof(double) * count);
-  a->count = count;
-  a->undefined = undefined;
-  misfit_validate(a);
-  PG_RETURN_POINTER(a);
+  return deserialize_with(fcinfo, kMisfitOps, "misfit_summary_deserialize");
 }
 
 // misfit_stats row: n, undefined, mean, median, above, threshold. NULL for an
@@ -467,6 +455,34 @@ STRIAE_FUNCTION(misfit_summary_final) {
 STRIAE_FUNCTION(moment_tensor_sum_accum) { return moment_accum(fcinfo, false); }
 STRIAE_FUNCTION(moment_tensor_sum_weighted_accum) { return moment_accum(fcinfo, true); }
 
+namespace {
+
+void *moment_read(MemoryContext ctx, const unsigned char *p, size_t n, const char *fn) {
+  MomentAgg *a = moment_new(ctx);
+  guarded([&] { read_moment_state(p, n, a->s, fn); });
+  return a;
+}
+
+void *moment_combine_states(MemoryContext, void *into, void *from, const char *) {
+  MomentAgg *a = static_cast<MomentAgg *>(into);
+  const MomentAgg *b = static_cast<const MomentAgg *>(from);
+  guarded([&] {
+    moment_validate(a->s);
+    moment_validate(b->s);
+    moment_combine(a->s, b->s);
+  });
+  return a;
+}
+
+size_t moment_size(void *, const char *) { return kMomentSerialSize; }
+
+void moment_write(void *s, unsigned char *out, const char *) {
+  const MomentAgg *a = static_cast<const MomentAgg *>(s);
+  guarded([&] { write_moment_state(a->s, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(moment_tensor_sum_combine) {
   MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_combine");
   MomentAgg *a = moment_state(fcinfo, 0, "moment_tensor_sum_combine");
@@ -481,35 +497,17 @@ STRIAE_FUNCTION(moment_tensor_sum_combine) {
     guarded([&] { moment_validate(a->s); });
     PG_RETURN_POINTER(a);
   }
-  guarded([&] {
-    moment_validate(a->s);
-    moment_validate(b->s);
-    moment_combine(a->s, b->s);
-  });
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(moment_combine_states(ctx, a, b, "moment_tensor_sum_combine"));
 }
 
 STRIAE_FUNCTION(moment_tensor_sum_serialize) {
   agg_context(fcinfo, "moment_tensor_sum_serialize");
-  const MomentAccum *s = &moment_state(fcinfo, 0, "moment_tensor_sum_serialize")->s;
-  guarded([&] { moment_validate(*s); });
-  bytea *out = static_cast<bytea *>(palloc(VARHDRSZ + 4 + sizeof(MomentAccum)));
-  SET_VARSIZE(out, VARHDRSZ + 4 + sizeof(MomentAccum));
-  std::memcpy(VARDATA(out), &kMomentMagic, 4);
-  std::memcpy(VARDATA(out) + 4, s, sizeof(MomentAccum));
-  PG_RETURN_BYTEA_P(out);
+  MomentAgg *a = moment_state(fcinfo, 0, "moment_tensor_sum_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kMomentOps, a, "moment_tensor_sum_serialize"));
 }
 
 STRIAE_FUNCTION(moment_tensor_sum_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "moment_tensor_sum_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  uint32 magic = 0;
-  if (VARSIZE_ANY_EXHDR(in) == 4 + sizeof(MomentAccum)) std::memcpy(&magic, VARDATA_ANY(in), 4);
-  if (magic != kMomentMagic) bad_serial("moment_tensor_sum_deserialize");
-  MomentAgg *a = moment_new(ctx);
-  std::memcpy(&a->s, VARDATA_ANY(in) + 4, sizeof(MomentAccum));
-  guarded([&] { moment_validate(a->s); });
-  PG_RETURN_POINTER(a);
+  return deserialize_with(fcinfo, kMomentOps, "moment_tensor_sum_deserialize");
 }
 
 // moment_summary row (60_analysis.sql); NULL for an empty group.
@@ -562,3 +560,11 @@ STRIAE_FUNCTION(kostrov_strain_rate) {
   });
   return float8_array(out, 6);
 }
+
+// ---- state operations (agg.hpp) ------------------------------------------------------
+
+namespace striae_pg {
+const StateOps kPhaseOps = {phase_read, phase_combine_states, phase_size, phase_write};
+const StateOps kMisfitOps = {misfit_read, misfit_combine_states, misfit_size, misfit_write};
+const StateOps kMomentOps = {moment_read, moment_combine_states, moment_size, moment_write};
+}  // namespace striae_pg

@@ -21,6 +21,7 @@ int sqlstate_of(striae::ErrorKind k) noexcept {
     case striae::ErrorKind::InvalidParameter: return ERRCODE_INVALID_PARAMETER_VALUE;
     case striae::ErrorKind::DataError: return ERRCODE_DATA_EXCEPTION;
     case striae::ErrorKind::BadState: return ERRCODE_DATA_EXCEPTION;
+    case striae::ErrorKind::InvalidBinary: return ERRCODE_INVALID_BINARY_REPRESENTATION;
   }
   return ERRCODE_DATA_EXCEPTION;
 }

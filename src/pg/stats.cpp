@@ -85,6 +85,43 @@ Datum accum(FunctionCallInfo fcinfo, bool is_plane, const char *fn) {
   PG_RETURN_POINTER(t);
 }
 
+// ---- the state operations (agg.hpp, StateOps) of the fixed-size states ----
+
+template <class S>
+void *fixed_read(MemoryContext ctx, const unsigned char *p, size_t n, const char *fn) {
+  Tagged<S> *t = tagged_new<S>(ctx);
+  guarded([&] { StateInfo<S>::read(p, n, t->s, fn); });
+  return t;
+}
+
+template <class S>
+void *fixed_combine(MemoryContext, void *into, void *from, const char *) {
+  Tagged<S> *a = static_cast<Tagged<S> *>(into);
+  const Tagged<S> *b = static_cast<const Tagged<S> *>(from);
+  guarded([&] {
+    StateInfo<S>::validate(a->s);
+    StateInfo<S>::validate(b->s);
+    StateInfo<S>::combine(a->s, b->s);
+  });
+  return a;
+}
+
+template <class S>
+size_t fixed_size(void *, const char *) {
+  return StateInfo<S>::serial_size;
+}
+
+template <class S>
+void fixed_write(void *s, unsigned char *out, const char *) {
+  const Tagged<S> *t = static_cast<const Tagged<S> *>(s);
+  guarded([&] { StateInfo<S>::write(t->s, out); });
+}
+
+template <class S>
+constexpr StateOps fixed_ops() {
+  return StateOps{fixed_read<S>, fixed_combine<S>, fixed_size<S>, fixed_write<S>};
+}
+
 template <class S>
 Datum combine(FunctionCallInfo fcinfo, const char *fn) {
   MemoryContext ctx = agg_context(fcinfo, fn);
@@ -100,33 +137,21 @@ Datum combine(FunctionCallInfo fcinfo, const char *fn) {
     guarded([&] { StateInfo<S>::validate(a->s); });
     PG_RETURN_POINTER(a);
   }
-  guarded([&] {
-    StateInfo<S>::validate(a->s);
-    StateInfo<S>::validate(b->s);
-    StateInfo<S>::combine(a->s, b->s);
-  });
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(fixed_combine<S>(ctx, a, b, fn));
 }
 
 template <class S>
 Datum serialize(FunctionCallInfo fcinfo, const char *fn) {
   agg_context(fcinfo, fn);
-  const Tagged<S> *t = tagged_arg<S>(fcinfo, 0, fn);
-  bytea *out = bytea_alloc(StateInfo<S>::serial_size);
-  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
-  guarded([&] { StateInfo<S>::write(t->s, p); });
-  PG_RETURN_BYTEA_P(out);
+  Tagged<S> *t = tagged_arg<S>(fcinfo, 0, fn);
+  constexpr StateOps ops = fixed_ops<S>();
+  PG_RETURN_BYTEA_P(serialize_with(ops, t, fn));
 }
 
 template <class S>
 Datum deserialize(FunctionCallInfo fcinfo, const char *fn) {
-  MemoryContext ctx = agg_context(fcinfo, fn);
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  Tagged<S> *t = tagged_new<S>(ctx);
-  const unsigned char *p = bytea_bytes(in);
-  const size_t n = VARSIZE_ANY_EXHDR(in);
-  guarded([&] { StateInfo<S>::read(p, n, t->s, fn); });
-  PG_RETURN_POINTER(t);
+  constexpr StateOps ops = fixed_ops<S>();
+  return deserialize_with(fcinfo, ops, fn);
 }
 
 // Build a composite result of the function's declared row type.
@@ -284,6 +309,49 @@ Datum density_accum(FunctionCallInfo fcinfo, bool is_plane) {
 STRIAE_FUNCTION(density_lineation_accum) { return density_accum(fcinfo, false); }
 STRIAE_FUNCTION(density_plane_accum) { return density_accum(fcinfo, true); }
 
+namespace {
+
+[[noreturn]] void density_spacing_mismatch() {
+  ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
+                  errmsg("density_grid spacing must be the same for every row of a group")));
+  pg_unreachable();
+}
+
+void *density_read(MemoryContext ctx, const unsigned char *p, size_t len, const char *fn) {
+  const DensitySerial h = guarded([&] { return read_density_header(p, len, fn); });
+  DensityAgg *a = density_new(ctx, h.spacing, Max(static_cast<size_t>(h.m), kDensityInitialCap));
+  guarded([&] { read_density_bins(p, len, h, a->ids, a->counts, fn); });
+  a->m = h.m;
+  return a;
+}
+
+// The merged list is a new state: merge_bins writes into fresh arrays.
+void *density_combine_states(MemoryContext ctx, void *into, void *from, const char *) {
+  DensityAgg *a = static_cast<DensityAgg *>(into);
+  DensityAgg *b = static_cast<DensityAgg *>(from);
+  if (a->spacing != b->spacing) density_spacing_mismatch();
+  density_compact(b);
+  density_compact(a);
+  DensityAgg *c = density_new(ctx, a->spacing, Max(a->m + b->m, kDensityInitialCap));
+  c->m = guarded([&] {
+    return merge_bins(a->ids, a->counts, a->m, b->ids, b->counts, b->m, c->ids, c->counts);
+  });
+  return c;
+}
+
+size_t density_size(void *s, const char *) {
+  DensityAgg *a = static_cast<DensityAgg *>(s);
+  density_compact(a);
+  return density_serial_size(a->m);
+}
+
+void density_write(void *s, unsigned char *out, const char *) {
+  const DensityAgg *a = static_cast<const DensityAgg *>(s);
+  guarded([&] { write_density_state(a->spacing, a->ids, a->counts, a->m, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(density_combine) {
   MemoryContext ctx = agg_context(fcinfo, "density_combine");
   DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_combine", StateKind::Density);
@@ -292,46 +360,24 @@ STRIAE_FUNCTION(density_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
-  density_compact(b);
   if (a == nullptr) {
+    density_compact(b);
     DensityAgg *c = density_new(ctx, b->spacing, Max(b->m, kDensityInitialCap));
     std::memcpy(c->ids, b->ids, sizeof(uint32_t) * b->m);
     std::memcpy(c->counts, b->counts, sizeof(uint64_t) * b->m);
     c->m = b->m;
     PG_RETURN_POINTER(c);
   }
-  if (a->spacing != b->spacing)
-    ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
-                    errmsg("density_grid spacing must be the same for every row of a group")));
-  density_compact(a);
-  DensityAgg *c = density_new(ctx, a->spacing, Max(a->m + b->m, kDensityInitialCap));
-  c->m = guarded([&] {
-    return merge_bins(a->ids, a->counts, a->m, b->ids, b->counts, b->m, c->ids, c->counts);
-  });
-  PG_RETURN_POINTER(c);
+  PG_RETURN_POINTER(density_combine_states(ctx, a, b, "density_combine"));
 }
 
 STRIAE_FUNCTION(density_serialize) {
   agg_context(fcinfo, "density_serialize");
   DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_serialize", StateKind::Density);
-  density_compact(a);
-  bytea *out = bytea_alloc(density_serial_size(a->m));
-  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
-  guarded([&] { write_density_state(a->spacing, a->ids, a->counts, a->m, p); });
-  PG_RETURN_BYTEA_P(out);
+  PG_RETURN_BYTEA_P(serialize_with(kDensityOps, a, "density_serialize"));
 }
 
-STRIAE_FUNCTION(density_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "density_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  const size_t len = VARSIZE_ANY_EXHDR(in);
-  const unsigned char *p = bytea_bytes(in);
-  const DensitySerial h = guarded([&] { return read_density_header(p, len, "density_deserialize"); });
-  DensityAgg *a = density_new(ctx, h.spacing, Max(static_cast<size_t>(h.m), kDensityInitialCap));
-  guarded([&] { read_density_bins(p, len, h, a->ids, a->counts, "density_deserialize"); });
-  a->m = h.m;
-  PG_RETURN_POINTER(a);
-}
+STRIAE_FUNCTION(density_deserialize) { return deserialize_with(fcinfo, kDensityOps, "density_deserialize"); }
 
 STRIAE_FUNCTION(density_final) {
   DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_final", StateKind::Density);
@@ -344,3 +390,11 @@ STRIAE_FUNCTION(density_final) {
   guarded([&] { density_values(a->ids, a->counts, a->m, a->spacing, g->values); });
   PG_RETURN_POINTER(g);
 }
+
+// ---- state operations (agg.hpp) ------------------------------------------------------
+
+namespace striae_pg {
+const StateOps kFisherOps = fixed_ops<FisherState>();
+const StateOps kTensorOps = fixed_ops<TensorState>();
+const StateOps kDensityOps = {density_read, density_combine_states, density_size, density_write};
+}  // namespace striae_pg

@@ -311,6 +311,34 @@ STRIAE_FUNCTION(stress_inversion_accum) {
   PG_RETURN_POINTER(a);
 }
 
+namespace {
+
+void *stress_read(MemoryContext ctx, const unsigned char *p, size_t n, const char *fn) {
+  StressAgg *a = stress_new(ctx);
+  guarded([&] { read_stress_state(p, n, a->s, fn); });
+  return a;
+}
+
+void *stress_combine_states(MemoryContext, void *into, void *from, const char *) {
+  StressAgg *a = static_cast<StressAgg *>(into);
+  const StressAgg *b = static_cast<const StressAgg *>(from);
+  guarded([&] {
+    stress_validate(a->s);
+    stress_validate(b->s);
+    stress_combine(a->s, b->s);
+  });
+  return a;
+}
+
+size_t stress_size(void *, const char *) { return kStressSerialSize; }
+
+void stress_write(void *s, unsigned char *out, const char *) {
+  const StressAgg *a = static_cast<const StressAgg *>(s);
+  guarded([&] { write_stress_state(a->s, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(stress_inversion_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_inversion_combine");
   StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_combine");
@@ -325,31 +353,17 @@ STRIAE_FUNCTION(stress_inversion_combine) {
     guarded([&] { stress_validate(a->s); });
     PG_RETURN_POINTER(a);
   }
-  guarded([&] {
-    stress_validate(a->s);
-    stress_validate(b->s);
-    stress_combine(a->s, b->s);
-  });
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(stress_combine_states(ctx, a, b, "stress_inversion_combine"));
 }
 
 STRIAE_FUNCTION(stress_inversion_serialize) {
   agg_context(fcinfo, "stress_inversion_serialize");
-  const StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_serialize");
-  bytea *out = bytea_alloc(kStressSerialSize);
-  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
-  guarded([&] { write_stress_state(a->s, p); });
-  PG_RETURN_BYTEA_P(out);
+  StressAgg *a = stress_state(fcinfo, 0, "stress_inversion_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kStressOps, a, "stress_inversion_serialize"));
 }
 
 STRIAE_FUNCTION(stress_inversion_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "stress_inversion_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  StressAgg *a = stress_new(ctx);
-  const unsigned char *p = bytea_bytes(in);
-  const size_t n = VARSIZE_ANY_EXHDR(in);
-  guarded([&] { read_stress_state(p, n, a->s, "stress_inversion_deserialize"); });
-  PG_RETURN_POINTER(a);
+  return deserialize_with(fcinfo, kStressOps, "stress_inversion_deserialize");
 }
 
 // NULL for an empty group, too few data or a degenerate set (stress.hpp, StressStatus).
@@ -437,6 +451,36 @@ STRIAE_FUNCTION(right_dihedra_accum) {
   PG_RETURN_POINTER(a);
 }
 
+namespace {
+
+void *dihedra_read(MemoryContext ctx, const unsigned char *p, size_t len, const char *fn) {
+  const DihedraHeader h = guarded([&] { return read_dihedra_header(p, len, fn); });
+  DihedraAgg *a = dihedra_new(ctx, h);
+  guarded([&] { read_dihedra_counts(p, len, h, a->counts, fn); });
+  return a;
+}
+
+void *dihedra_combine_states(MemoryContext, void *into, void *from, const char *) {
+  DihedraAgg *a = static_cast<DihedraAgg *>(into);
+  const DihedraAgg *b = static_cast<const DihedraAgg *>(from);
+  if (a->h.spacing != b->h.spacing) dihedra_spacing_mismatch();
+  guarded([&] {
+    dihedra_validate(a->h, a->counts);
+    dihedra_validate(b->h, b->counts);
+    dihedra_combine(a->h, a->counts, b->h, b->counts);
+  });
+  return a;
+}
+
+size_t dihedra_bytes(void *s, const char *) { return dihedra_serial_size(static_cast<DihedraAgg *>(s)->h); }
+
+void dihedra_write(void *s, unsigned char *out, const char *) {
+  const DihedraAgg *a = static_cast<const DihedraAgg *>(s);
+  guarded([&] { write_dihedra_state(a->h, a->counts, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(right_dihedra_combine) {
   MemoryContext ctx = agg_context(fcinfo, "right_dihedra_combine");
   DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_combine");
@@ -451,33 +495,17 @@ STRIAE_FUNCTION(right_dihedra_combine) {
     std::memcpy(a, b, dihedra_size(b));
     PG_RETURN_POINTER(a);
   }
-  if (a->h.spacing != b->h.spacing) dihedra_spacing_mismatch();
-  guarded([&] {
-    dihedra_validate(a->h, a->counts);
-    dihedra_validate(b->h, b->counts);
-    dihedra_combine(a->h, a->counts, b->h, b->counts);
-  });
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(dihedra_combine_states(ctx, a, b, "right_dihedra_combine"));
 }
 
 STRIAE_FUNCTION(right_dihedra_serialize) {
   agg_context(fcinfo, "right_dihedra_serialize");
-  const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_serialize");
-  bytea *out = bytea_alloc(dihedra_serial_size(a->h));
-  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
-  guarded([&] { write_dihedra_state(a->h, a->counts, p); });
-  PG_RETURN_BYTEA_P(out);
+  DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kDihedraOps, a, "right_dihedra_serialize"));
 }
 
 STRIAE_FUNCTION(right_dihedra_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "right_dihedra_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  const size_t len = VARSIZE_ANY_EXHDR(in);
-  const unsigned char *p = bytea_bytes(in);
-  const DihedraHeader h = guarded([&] { return read_dihedra_header(p, len, "right_dihedra_deserialize"); });
-  DihedraAgg *a = dihedra_new(ctx, h);
-  guarded([&] { read_dihedra_counts(p, len, h, a->counts, "right_dihedra_deserialize"); });
-  PG_RETURN_POINTER(a);
+  return deserialize_with(fcinfo, kDihedraOps, "right_dihedra_deserialize");
 }
 
 // NULL for an empty group (or only NULL rows).
@@ -659,6 +687,43 @@ STRIAE_FUNCTION(focal_bootstrap_accum) {
 }
 STRIAE_FUNCTION(focal_stress_inversion_friction_accum) { return focal_accum(fcinfo, true); }
 
+namespace {
+
+void *keep_read(MemoryContext ctx, const unsigned char *p, size_t len, const char *fn) {
+  const KeepParams h = guarded([&] { return read_keep_header(p, len, fn); });
+  KeepAgg *a = keep_new(ctx, h.kind, h.resamples, h.seed, h.friction, h.count);
+  guarded([&] { read_keep_data(p, len, h, a->data, fn); });
+  a->count = h.count;
+  return a;
+}
+
+// Appends from's data to into (repalloc keeps into's data in its own context).
+void *keep_combine_states(MemoryContext, void *into, void *from, const char *fn) {
+  KeepAgg *a = static_cast<KeepAgg *>(into);
+  const KeepAgg *b = static_cast<const KeepAgg *>(from);
+  keep_validate(b);
+  keep_validate(a);
+  if (a->kind != b->kind) wrong_state_kind(b, fn, {keep_state_kind(a->kind)});
+  keep_same(a, b->resamples, b->seed, b->friction, "stress inversion");
+  keep_reserve(a, a->count + b->count);
+  if (b->count > 0) std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
+  a->count += b->count;
+  return a;
+}
+
+size_t keep_size(void *s, const char *) {
+  const KeepAgg *a = static_cast<const KeepAgg *>(s);
+  keep_validate(a);
+  return keep_serial_size(a->count);
+}
+
+void keep_write(void *s, unsigned char *out, const char *) {
+  const KeepAgg *a = static_cast<const KeepAgg *>(s);
+  guarded([&] { write_keep_state(keep_params(a), a->data, out); });
+}
+
+}  // namespace
+
 STRIAE_FUNCTION(stress_keep_combine) {
   MemoryContext ctx = agg_context(fcinfo, "stress_keep_combine");
   KeepAgg *a = keep_state_any(fcinfo, 0, "stress_keep_combine");
@@ -667,41 +732,20 @@ STRIAE_FUNCTION(stress_keep_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
-  keep_validate(b);
   if (a == nullptr) {
+    keep_validate(b);
     a = keep_new(ctx, b->kind, b->resamples, b->seed, b->friction, b->count);
-  } else {
-    keep_validate(a);
-    if (a->kind != b->kind) wrong_state_kind(b, "stress_keep_combine", {keep_state_kind(a->kind)});
-    keep_same(a, b->resamples, b->seed, b->friction, "stress inversion");
   }
-  keep_reserve(a, a->count + b->count);
-  std::memcpy(a->data + a->count, b->data, sizeof(SlipDatum) * b->count);
-  a->count += b->count;
-  PG_RETURN_POINTER(a);
+  PG_RETURN_POINTER(keep_combine_states(ctx, a, b, "stress_keep_combine"));
 }
 
 STRIAE_FUNCTION(stress_keep_serialize) {
   agg_context(fcinfo, "stress_keep_serialize");
-  const KeepAgg *a = keep_state_any(fcinfo, 0, "stress_keep_serialize");
-  keep_validate(a);
-  bytea *out = bytea_alloc(keep_serial_size(a->count));
-  unsigned char *p = reinterpret_cast<unsigned char *>(VARDATA(out));
-  guarded([&] { write_keep_state(keep_params(a), a->data, p); });
-  PG_RETURN_BYTEA_P(out);
+  KeepAgg *a = keep_state_any(fcinfo, 0, "stress_keep_serialize");
+  PG_RETURN_BYTEA_P(serialize_with(kKeepOps, a, "stress_keep_serialize"));
 }
 
-STRIAE_FUNCTION(stress_keep_deserialize) {
-  MemoryContext ctx = agg_context(fcinfo, "stress_keep_deserialize");
-  bytea *in = PG_GETARG_BYTEA_PP(0);
-  const size_t len = VARSIZE_ANY_EXHDR(in);
-  const unsigned char *p = bytea_bytes(in);
-  const KeepParams h = guarded([&] { return read_keep_header(p, len, "stress_keep_deserialize"); });
-  KeepAgg *a = keep_new(ctx, h.kind, h.resamples, h.seed, h.friction, h.count);
-  guarded([&] { read_keep_data(p, len, h, a->data, "stress_keep_deserialize"); });
-  a->count = h.count;
-  PG_RETURN_POINTER(a);
-}
+STRIAE_FUNCTION(stress_keep_deserialize) { return deserialize_with(fcinfo, kKeepOps, "stress_keep_deserialize"); }
 
 // Bootstrap inversion: NULL for an empty group, too few data or a degenerate set.
 STRIAE_FUNCTION(stress_bootstrap_final) {
@@ -751,3 +795,11 @@ STRIAE_FUNCTION(focal_stress_inversion_final) {
   if (st != StressStatus::Ok) PG_RETURN_NULL();
   return result(r.tensor);
 }
+
+// ---- state operations (agg.hpp) ------------------------------------------------------
+
+namespace striae_pg {
+const StateOps kStressOps = {stress_read, stress_combine_states, stress_size, stress_write};
+const StateOps kDihedraOps = {dihedra_read, dihedra_combine_states, dihedra_bytes, dihedra_write};
+const StateOps kKeepOps = {keep_read, keep_combine_states, keep_size, keep_write};
+}  // namespace striae_pg

@@ -63,8 +63,56 @@ if out=$(psql -X -q -d "$SRC" -c "\\copy d3 FROM '$W/bad.bin' WITH (FORMAT binar
 fi
 echo "$out" | grep -q "invalid binary format version 9 for type plane" || { echo "unexpected: $out"; exit 1; }
 echo "binary COPY: corrupted version byte rejected"
+# partial_state (two-phase aggregation): partials of every kind through binary
+# COPY, and corrupted binary partials rejected with 22P03 (the binary input
+# validates exactly as the text input does)
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" <<'SQL'
+CREATE TABLE pt AS SELECT row_number() OVER () AS k, x AS p FROM (
+  SELECT fisher_mean_partial(l) FROM d UNION ALL SELECT fisher_mean_partial(p) FROM d
+  UNION ALL SELECT orientation_tensor_partial(l) FROM d UNION ALL SELECT density_grid_partial(p, 10) FROM d
+  UNION ALL SELECT stress_inversion_partial(f) FROM d UNION ALL SELECT stress_inversion_partial(f, 10, 1) FROM d
+  UNION ALL SELECT right_dihedra_partial(f, 15) FROM d UNION ALL SELECT focal_stress_inversion_partial(f, 0.6) FROM d
+  UNION ALL SELECT focal_stress_inversion_partial(f, 0.6, 5, 2) FROM d UNION ALL SELECT stress_phases_partial(f, 2, 1) FROM d
+  UNION ALL SELECT misfit_summary_partial(f, stress_tensor('000/90', '090/00', 0.5), 30) FROM d
+  UNION ALL SELECT moment_tensor_sum_partial(f, 5) FROM d UNION ALL SELECT NULL::partial_state) s(x);
+SQL
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "\copy pt TO '$W/pt.bin' WITH (FORMAT binary)"
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "CREATE TABLE pt2 (LIKE pt)" -c "\copy pt2 FROM '$W/pt.bin' WITH (FORMAT binary)"
+bad=$(psql -X -q -At -d "$SRC" -c "SELECT count(*) FROM pt FULL JOIN pt2 USING (k) WHERE pt.p::text IS DISTINCT FROM pt2.p::text
+  OR partial_state_send(pt.p) IS DISTINCT FROM partial_state_send(pt2.p)")
+kinds=$(psql -X -q -At -d "$SRC" -c "SELECT count(DISTINCT partial_kind(p)) FROM pt")
+echo "binary COPY of partial_state: $bad mismatching rows of 13 ($kinds kinds)"
+[ "$bad" = 0 ] && [ "$kinds" = 12 ]
+psql -X -q -v ON_ERROR_STOP=1 -d "$SRC" -c "\copy (SELECT p FROM pt WHERE partial_kind(p) = 'stress_inversion/fault_slip') TO '$W/p1.bin' WITH (FORMAT binary)"
+psql -X -q -d "$SRC" -c "CREATE TABLE pt3 (p partial_state)" >/dev/null
+for how in kind truncated count; do
+  /usr/bin/python3 - "$W/p1.bin" "$W/pbad.bin" "$how" <<'PY'
+import struct, sys
+data = bytearray(open(sys.argv[1], "rb").read())
+# 19-byte header, int16 field count, int32 length, then the value: 16-byte
+# partial header (magic "Stag", kind, input, reserved), then the stress state
+# (magic "SST1", int64 count, sums)
+off = 19 + 2
+(n,) = struct.unpack(">i", data[off:off + 4])
+v = off + 4
+assert data[v:v + 4] == b"Stag", data[v:v + 4]
+if sys.argv[3] == "kind":
+    data[v + 4] = 99                      # a kind no partial carries
+elif sys.argv[3] == "truncated":
+    data[off:off + 4] = struct.pack(">i", n - 8)
+    del data[v + n - 8:v + n]             # the last sum cut off
+else:
+    data[v + 16 + 4 + 7] = 0x40           # count far beyond the data the sums hold
+open(sys.argv[2], "wb").write(data)
+PY
+  if out=$(psql -X -q -v VERBOSITY=verbose -d "$SRC" -c "\copy pt3 FROM '$W/pbad.bin' WITH (FORMAT binary)" 2>&1); then
+    echo "corrupted binary partial ($how) was accepted"; exit 1
+  fi
+  echo "$out" | grep -q "22P03: invalid binary data for type partial_state" || { echo "unexpected ($how): $out"; exit 1; }
+  echo "binary COPY: corrupted partial_state ($how) rejected: $(echo "$out" | sed -n 's/^DETAIL: *//p' | head -1 | cut -c1-110)"
+done
 # dump and restore
-pg_dump -Fc -d "$SRC" -t d -t r -f "$W/d.dump"
+pg_dump -Fc -d "$SRC" -t d -t r -t pt -f "$W/d.dump"
 psql -X -q -d "$DST" -c "CREATE EXTENSION striae"
 pg_restore -d "$DST" "$W/d.dump"
 a=$(psql -X -q -At -d "$SRC" -c "SET extra_float_digits = 3" -c "SELECT md5(string_agg(p::text || l::text || f::text, ',' ORDER BY i)) FROM d")
@@ -75,6 +123,11 @@ q="SELECT md5(string_agg(s::text || sb::text || g::text || dg::text, ',' ORDER B
 a=$(psql -X -q -At -d "$SRC" -c "SET extra_float_digits = 3" -c "$q")
 b=$(psql -X -q -At -d "$DST" -c "SET extra_float_digits = 3" -c "$q")
 echo "dump/restore of stress_tensor and sphere_grid: source $a, restored $b"
+[ "$a" = "$b" ]
+q="SELECT md5(string_agg(coalesce(p::text, 'NULL'), ',' ORDER BY k)) FROM pt"
+a=$(psql -X -q -At -d "$SRC" -c "$q")
+b=$(psql -X -q -At -d "$DST" -c "$q")
+echo "dump/restore of partial_state: source $a, restored $b"
 [ "$a" = "$b" ]
 # the text output at default settings also reads back exactly
 bad=$(psql -X -At -d "$DST" -c "SELECT count(*) FROM d WHERE p::text::plane <> p OR l::text::lineation <> l OR f::text::fault_slip <> f")

@@ -13,6 +13,7 @@
 #include "density.hpp"
 #include "grid.hpp"
 #include "orientation.hpp"
+#include "partial.hpp"
 
 using namespace striae;
 using Buf = std::vector<unsigned char>;
@@ -72,6 +73,21 @@ std::string grid_text(GridKind kind, double spacing, long n, double value) {
                   std::to_string(spacing) + ", \"n\": " + std::to_string(n) + ", \"values\": [";
   for (int k = 0; k < count; ++k) s += (k ? ", " : "") + std::to_string(value + (k % 7) * 0.5);
   return s + "]}";
+}
+
+// A serialized state as a partial_state value, as seeds of both partial
+// harnesses: its bytes (binary input) and its text.
+int partial_seeds = 0;
+void partial_seed(StateKind k, PartialInput in, const Buf &state) {
+  Buf b(kPartialHeader);
+  write_partial_header(k, in, b.data());
+  b.insert(b.end(), state.begin(), state.end());
+  ++partial_seeds;
+  put("fuzz_partial_binary", partial_seeds, b);
+  std::string t(partial_text_size(b.data(), b.size()) + 1, '\0');
+  write_partial_text(b.data(), b.size(), t.data());
+  t.pop_back();
+  put("fuzz_partial_text", partial_seeds, Buf(t.begin(), t.end()));
 }
 
 }  // namespace
@@ -160,6 +176,10 @@ int main(int argc, char **argv) {
       write_tensor_state(t, bt.data());
       put("fuzz_state_fisher", ++k, bf);
       put("fuzz_state_tensor", k, bt);
+      if (n <= 40) {
+        partial_seed(StateKind::Fisher, n % 2 ? PartialInput::Plane : PartialInput::Lineation, bf);
+        partial_seed(StateKind::Tensor, n % 2 ? PartialInput::Lineation : PartialInput::Plane, bt);
+      }
     }
   }
   {
@@ -171,6 +191,7 @@ int main(int argc, char **argv) {
       Buf b(kStressSerialSize);
       write_stress_state(s, b.data());
       put("fuzz_state_stress", ++k, b);
+      partial_seed(StateKind::StressLinear, PartialInput::FaultSlip, b);
     }
   }
   {
@@ -187,6 +208,7 @@ int main(int argc, char **argv) {
         Buf b(density_serial_size(m));
         write_density_state(spacing, ids.data(), counts.data(), m, b.data());
         put("fuzz_state_density", ++k, b);
+        if (n <= 5) partial_seed(StateKind::Density, spacing == 10 ? PartialInput::Plane : PartialInput::Lineation, b);
       }
     }
   }
@@ -204,6 +226,7 @@ int main(int argc, char **argv) {
         Buf b(dihedra_serial_size(h));
         write_dihedra_state(h, counts.data(), b.data());
         put("fuzz_state_dihedra", ++k, b);
+        if (spacing == 45) partial_seed(StateKind::RightDihedra, PartialInput::FaultSlip, b);
       }
     }
   }
@@ -219,7 +242,34 @@ int main(int argc, char **argv) {
         Buf b(keep_serial_size(n));
         write_keep_state(p, d.data(), b.data());
         put("fuzz_state_keep", ++k, b);
+        if (n == 6) partial_seed(keep_state_kind(p.kind), PartialInput::FaultSlip, b);
       }
+  }
+  // the states serialized in agg_state since the two-phase forms (stress_phases,
+  // misfit_summary, moment_tensor_sum), as partials
+  for (int n : {0, 9}) {
+    std::vector<SlipDatum> d;
+    for (const FaultSlip &f : faults(n)) d.push_back(slip_datum(f));
+    const PhaseParams h{2, 20, 7, n};
+    Buf b(phase_serial_size(n));
+    write_phase_state(h, d.data(), b.data());
+    partial_seed(StateKind::Phases, PartialInput::FaultSlip, b);
+  }
+  {
+    const std::vector<double> v{0, 3.5, 42, 90, 179.25};
+    const MisfitParams h{30, 2, static_cast<int64_t>(v.size())};
+    Buf b(misfit_serial_size(h.count));
+    write_misfit_state(h, v.data(), b.data());
+    partial_seed(StateKind::MisfitSummary, PartialInput::FaultSlip, b);
+  }
+  for (int weighted : {-1, 0, 1}) {
+    MomentAccum s;
+    moment_init(s);
+    if (weighted >= 0)
+      for (const FaultSlip &f : faults(7)) moment_add(s, f, weighted ? moment_from_magnitude(4.5) : 1.0, weighted == 1);
+    Buf b(kMomentSerialSize);
+    write_moment_state(s, b.data());
+    partial_seed(StateKind::MomentSum, PartialInput::FaultSlip, b);
   }
   return 0;
 }

@@ -27,6 +27,7 @@ for t in "$@"; do
     fuzz_plane_text | fuzz_lineation_text | fuzz_fault_slip_text | fuzz_sense) dict=tests/fuzz/dict/orientation.dict ;;
     fuzz_stress_text) dict=tests/fuzz/dict/stress_text.dict ;;
     fuzz_grid_text) dict=tests/fuzz/dict/grid_text.dict ;;
+    fuzz_partial_text) dict=tests/fuzz/dict/partial_text.dict ;;
     *) dict= ;;
   esac
   if [ "$mode" = smoke ]; then

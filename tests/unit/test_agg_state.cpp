@@ -363,3 +363,71 @@ TEST(GridBinary, DataCountRangeOfText) {
   const GridHeader h = parse_grid_header(s.c_str());
   EXPECT_EQ(h.n, int64_t(1) << 53);
 }
+
+// ---- the serialized forms moved from the glue (stress_phases, misfit_summary, moment_tensor_sum) ----
+
+TEST(SerialPhases, RoundTripAndRejections) {
+  std::vector<SlipDatum> d;
+  for (const FaultSlip &f : faults(9)) d.push_back(slip_datum(f));
+  const PhaseParams h{2, 20, -5, 9};
+  Bytes b(phase_serial_size(h.count));
+  write_phase_state(h, d.data(), b.data());
+  const PhaseParams r = read_phase_header(b.data(), b.size(), "fn");
+  EXPECT_EQ(r.phases, 2);
+  EXPECT_EQ(r.starts, 20);
+  EXPECT_EQ(r.seed, -5);  // any seed
+  std::vector<SlipDatum> back(static_cast<size_t>(r.count));
+  read_phase_data(b.data(), b.size(), r, back.data(), "fn");
+  EXPECT_EQ(std::memcmp(back.data(), d.data(), sizeof(SlipDatum) * d.size()), 0);
+  Bytes bad = b;
+  poke<int32_t>(bad, 4, 9);  // phases beyond kMaxPhases
+  EXPECT_EQ(error_of([&] { read_phase_header(bad.data(), bad.size(), "fn"); }).kind, ErrorKind::BadState);
+  bad = b;
+  poke<int64_t>(bad, 20, 10);  // count and length disagree
+  EXPECT_EQ(error_of([&] { read_phase_header(bad.data(), bad.size(), "fn"); }).kind, ErrorKind::BadState);
+  bad = b;
+  poke<double>(bad, kPhaseSerialHeader, 3.0);  // not a unit normal
+  EXPECT_EQ(error_of([&] { read_phase_data(bad.data(), bad.size(), r, back.data(), "fn"); }).kind,
+            ErrorKind::BadState);
+}
+
+TEST(SerialMisfit, RoundTripAndRejections) {
+  const std::vector<double> v{0, 12.5, 180};
+  const MisfitParams h{30, 4, 3};
+  Bytes b(misfit_serial_size(h.count));
+  write_misfit_state(h, v.data(), b.data());
+  const MisfitParams r = read_misfit_header(b.data(), b.size(), "fn");
+  EXPECT_EQ(r.undefined, 4);
+  std::vector<double> back(3);
+  read_misfit_values(b.data(), b.size(), r, back.data(), "fn");
+  EXPECT_EQ(back, v);
+  Bytes bad = b;
+  poke<double>(bad, 4, 181.0);  // threshold beyond 180
+  EXPECT_EQ(error_of([&] { read_misfit_header(bad.data(), bad.size(), "fn"); }).kind, ErrorKind::BadState);
+  bad = b;
+  poke<int64_t>(bad, 12, kMaxMisfitUndefined + 1);  // undefined count beyond 2^53
+  EXPECT_EQ(error_of([&] { read_misfit_header(bad.data(), bad.size(), "fn"); }).kind, ErrorKind::BadState);
+  bad = b;
+  poke<double>(bad, kMisfitSerialHeader + 8, -1.0);  // a misfit below 0
+  EXPECT_EQ(error_of([&] { read_misfit_values(bad.data(), bad.size(), r, back.data(), "fn"); }).kind,
+            ErrorKind::BadState);
+}
+
+TEST(SerialMoment, RoundTripAndCountLimit) {
+  MomentAccum s;
+  moment_init(s);
+  for (const FaultSlip &f : faults(5)) moment_add(s, f, 1.0, false);
+  Bytes b(kMomentSerialSize);
+  write_moment_state(s, b.data());
+  MomentAccum r;
+  read_moment_state(b.data(), b.size(), r, "fn");
+  EXPECT_EQ(std::memcmp(&r, &s, sizeof s), 0);
+  // two states at the count limit do not overflow when combined
+  MomentAccum big = s;
+  big.count = kMaxMomentData;
+  big.m0 = static_cast<double>(kMaxMomentData);
+  EXPECT_NO_THROW(moment_validate(big));
+  EXPECT_EQ(error_of([&] { moment_combine(big, s); }).kind, ErrorKind::DataError);
+  big.count = kMaxMomentData + 1;
+  EXPECT_EQ(error_of([&] { moment_validate(big); }).kind, ErrorKind::BadState);
+}
