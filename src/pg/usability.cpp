@@ -174,6 +174,8 @@ STRIAE_FUNCTION(input_errors_array) {
 // filled by COPY). The query runs with the caller's privileges (SPI, security
 // invoker), and the table and column names are quoted identifiers resolved
 // from the regclass, so nothing of the arguments is spliced into SQL as code.
+// Every type and function the query names is schema-qualified, so objects of
+// the caller's search_path cannot stand in for them (sql/search_path.sql).
 STRIAE_FUNCTION(input_errors_table) {
   if (PG_ARGISNULL(0) || PG_ARGISNULL(1) || PG_ARGISNULL(2)) PG_RETURN_NULL();
   const Oid rel = PG_GETARG_OID(0);
@@ -194,12 +196,12 @@ STRIAE_FUNCTION(input_errors_table) {
   StringInfoData q;
   initStringInfo(&q);
   if (line_col != nullptr)
-    appendStringInfo(&q, "SELECT (%s)::bigint, (%s)::text FROM %s WHERE %s IS NOT NULL ORDER BY 1",
+    appendStringInfo(&q, "SELECT (%s)::pg_catalog.int8, (%s)::pg_catalog.text FROM %s WHERE %s IS NOT NULL ORDER BY 1",
                      quote_identifier(line_col), quote_identifier(col), qualified, quote_identifier(col));
   else
     appendStringInfo(&q,
-                     "SELECT line, v FROM (SELECT row_number() OVER (ORDER BY ctid) AS line, (%s)::text AS v "
-                     "FROM %s) s WHERE v IS NOT NULL ORDER BY line",
+                     "SELECT line, v FROM (SELECT pg_catalog.row_number() OVER (ORDER BY ctid) AS line, "
+                     "(%s)::pg_catalog.text AS v FROM %s) s WHERE v IS NOT NULL ORDER BY line",
                      quote_identifier(col), qualified);
 
   InitMaterializedSRF(fcinfo, 0);

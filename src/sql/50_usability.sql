@@ -79,16 +79,16 @@ COMMENT ON FUNCTION to_text(sphere_grid, integer) IS
 -- to_json/to_jsonb of a row use a type's cast to json when there is one, so
 -- these casts make stress_tensor and sphere_grid fields come out as objects.
 CREATE FUNCTION stress_tensor_json(stress_tensor) RETURNS json
-  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::text::json';
+  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::pg_catalog.text::pg_catalog.json';
 COMMENT ON FUNCTION stress_tensor_json(stress_tensor) IS 'stress_tensor as a JSON object (its text form; cast support)';
 CREATE FUNCTION stress_tensor_jsonb(stress_tensor) RETURNS jsonb
-  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::text::jsonb';
+  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::pg_catalog.text::pg_catalog.jsonb';
 COMMENT ON FUNCTION stress_tensor_jsonb(stress_tensor) IS 'stress_tensor as a jsonb object (its text form; cast support)';
 CREATE FUNCTION sphere_grid_json(sphere_grid) RETURNS json
-  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::text::json';
+  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::pg_catalog.text::pg_catalog.json';
 COMMENT ON FUNCTION sphere_grid_json(sphere_grid) IS 'sphere_grid as a JSON object (its text form; cast support)';
 CREATE FUNCTION sphere_grid_jsonb(sphere_grid) RETURNS jsonb
-  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::text::jsonb';
+  LANGUAGE sql IMMUTABLE STRICT PARALLEL SAFE AS 'SELECT $1::pg_catalog.text::pg_catalog.jsonb';
 COMMENT ON FUNCTION sphere_grid_jsonb(sphere_grid) IS 'sphere_grid as a jsonb object (its text form; cast support)';
 CREATE CAST (stress_tensor AS json) WITH FUNCTION stress_tensor_json(stress_tensor);
 CREATE CAST (stress_tensor AS jsonb) WITH FUNCTION stress_tensor_jsonb(stress_tensor);
