@@ -25,8 +25,7 @@ Notation notation_named(const char *name) {
                 {"slip_sense", Notation::SlipSense}};
   for (const auto &n : kNames)
     if (std::strcmp(name, n.name) == 0) return n.kind;
-  std::string shown(name);
-  if (shown.size() > 40) shown = shown.substr(0, 40) + "...";
+  const std::string shown = echo_text(name, 60);
   throw Error(ErrorKind::InvalidParameter, "unknown notation \"" + shown + "\"",
               "Accepted: plane, lineation, fault_slip, stress_tensor, sphere_grid, slip_sense.");
 }
@@ -119,8 +118,7 @@ std::vector<std::string> words(const char *s) {
 }
 
 [[noreturn]] void column_error(const char *column, const std::string &what, const char *text) {
-  std::string shown(text);
-  if (shown.size() > 60) shown = shown.substr(0, 60) + "...";
+  const std::string shown = echo_text(text, 60);
   throw Error(ErrorKind::InvalidText,
               std::string("invalid ") + column + " column for a fault-slip datum: \"" + shown + "\"", what,
               "Accepted: strike '110' or 'N70W'; dip '64' or '64SW'; an unsigned rake '75' or a pitch "

@@ -57,7 +57,7 @@ Cone make_cone(const Plane &plane, double radius) {
 Cone parse_cone(const char *text) {
   const std::string t(text);
   auto fail = [&](const std::string &detail) -> Cone {
-    std::string shown = t.size() > 100 ? t.substr(0, 100) + "..." : t;
+    const std::string shown = echo_text(t);
     throw Error(ErrorKind::InvalidText, "invalid input syntax for type cone: \"" + shown + "\"", detail,
                 "Accepted: 'line 120/30 within 10' (lineations within 10 degrees of 120/30) or "
                 "'plane 110/64 within 10'; cone(axis, half_angle) builds the same.");

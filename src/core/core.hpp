@@ -51,6 +51,30 @@ extern InterruptHook interrupt_hook;
 inline void poll_interrupts() {
   if (interrupt_hook != nullptr && interrupt_hook()) throw Cancelled{};
 }
+// In a loop over the data whose iterations each take well under a
+// microsecond: polls on every 65,536th iteration (i counting from 0), a few
+// milliseconds of work at most.
+constexpr size_t kPollMask = 0xffff;
+inline void poll_every(size_t i) {
+  if ((i & kPollMask) == kPollMask) poll_interrupts();
+}
+
+// Echoing user text in error messages (DEVELOPERS.md, "Errors"). A message
+// quotes at most kEchoBytes of any argument, cut before a character that would
+// not fit whole and marked "..." when cut; a single offending character is
+// quoted whole. Text is taken as UTF-8 where its bytes form valid UTF-8
+// sequences and byte by byte elsewhere (a single-byte server encoding); the
+// glue's guard makes the final message valid in the database encoding.
+constexpr size_t kEchoBytes = 200;
+// s cut to at most max_bytes at a character boundary, "..." appended when cut.
+std::string echo_text(const char *s, size_t max_bytes = kEchoBytes);
+inline std::string echo_text(const std::string &s, size_t max_bytes = kEchoBytes) {
+  return echo_text(s.c_str(), max_bytes);
+}
+// Length of the character at p (p < end): its UTF-8 sequence when valid, else 1.
+size_t char_length(const char *p, const char *end);
+// The character at p, whole.
+inline std::string char_at(const char *p, const char *end) { return std::string(p, char_length(p, end)); }
 
 constexpr double kPi = 3.14159265358979323846;
 constexpr double kDeg = kPi / 180.0;  // degrees -> radians

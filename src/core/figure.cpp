@@ -299,7 +299,7 @@ struct Parser {
   const char *p;
   [[noreturn]] void fail(const std::string &what) {
     throw Error(ErrorKind::InvalidText, std::string("invalid input syntax for type net_figure: \"") +
-                                            std::string(text).substr(0, 60) + (std::strlen(text) > 60 ? "...\"" : "\""),
+                                            echo_text(text, 60) + "\"",
                 what,
                 "The text form is {\"layers\": [{\"kind\": \"poles\", \"label\": \"...\", \"params\": [...], "
                 "\"data\": [...]}, ...]}.");
@@ -434,7 +434,7 @@ Figure figure_from_text(const char *text) {
       l.kind = LayerKind{0};
       for (int k = 1; k <= kLayerKindCount; ++k)
         if (kind == kKinds[k].name) l.kind = static_cast<LayerKind>(k);
-      if (!known(l.kind)) ps.fail("unknown layer kind \"" + kind + "\".");
+      if (!known(l.kind)) ps.fail("unknown layer kind \"" + echo_text(kind, 60) + "\".");
       ps.expect(',');
       ps.key("label");
       l.label = ps.string();

@@ -83,8 +83,7 @@ const char *grid_kind_name(GridKind k) {
 namespace {
 
 [[noreturn]] void grid_syntax(const char *text, const std::string &detail) {
-  std::string t(text);
-  if (t.size() > 80) t = t.substr(0, 80) + "...";
+  const std::string t = echo_text(text, 80);
   throw Error(ErrorKind::InvalidText, "invalid input syntax for type sphere_grid: \"" + t + "\"",
               detail,
               "Accepted: {\"kind\": \"density\" or \"right_dihedra\", \"spacing\": S, \"n\": N, "

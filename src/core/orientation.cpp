@@ -318,7 +318,7 @@ bool apply_sense_word(const std::string &w, Sense &s, std::string &err) {
   else if (w == "d" || w == "dextral" || w == "right-lateral" || w == "rl") strike = -1;
   else if (w == "s" || w == "sinistral" || w == "left-lateral" || w == "ll") strike = 1;
   else {
-    err = "unknown slip sense \"" + w + "\"";
+    err = "unknown slip sense \"" + echo_text(w, 40) + "\"";
     return false;
   }
   if (dip != 0) {

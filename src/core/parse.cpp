@@ -51,11 +51,17 @@ struct Parser {
   int n = 0;
 
   [[noreturn]] void fail(const std::string &detail) const {
-    std::string t(text);
-    if (t.size() > 200) t = t.substr(0, 200) + "...";
     throw Error(ErrorKind::InvalidText,
-                std::string("invalid input syntax for type ") + type + ": \"" + t + "\"", detail,
-                hint);
+                std::string("invalid input syntax for type ") + type + ": \"" + echo_text(text) + "\"",
+                detail, hint);
+  }
+
+  // A number that reads but lies outside what its field accepts (or outside
+  // the range of double): 22003, as in float8 input and the numeric constructors.
+  [[noreturn]] void out_of_range(const std::string &what, const std::string &accepted) const {
+    throw Error(ErrorKind::OutOfRange,
+                std::string("value out of range for type ") + type + ": \"" + echo_text(text) + "\"",
+                what + " is out of range; accepted: " + accepted + ".", hint);
   }
 
   bool letters_are(const Field &x, const char *w) const {
@@ -126,12 +132,14 @@ void classify(Parser &ps, const char *b, const char *e) {
       return;
     }
     for (const char *q = p; q < e; ++q)
-      if (!is_alpha(*q) && *q != '-') ps.fail(std::string("unexpected character '") + *q + "'");
+      if (!is_alpha(*q) && *q != '-') ps.fail("unexpected character '" + char_at(q, e) + "'");
     x.kind = FieldKind::Letters;
     x.letters = p;
     x.nletters = static_cast<size_t>(e - p);
     return;
   }
+  if (!is_digit(*p) && *p != '.' && *p != '+' && *p != '-')
+    ps.fail("unexpected character '" + char_at(p, e) + "'");
   bool neg = false, sign = false;
   if (*p == '+' || *p == '-') {
     neg = *p == '-';
@@ -149,7 +157,7 @@ void classify(Parser &ps, const char *b, const char *e) {
     return;
   }
   for (const char *r = q; r < e; ++r)
-    if (!is_alpha(*r)) ps.fail(std::string("unexpected character '") + *r + "' after a number");
+    if (!is_alpha(*r)) ps.fail("unexpected character '" + char_at(r, e) + "' after a number");
   x.kind = FieldKind::NumberLetters;
   x.letters = q;
   x.nletters = static_cast<size_t>(e - q);

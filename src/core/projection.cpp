@@ -11,7 +11,7 @@ Projection parse_projection(const std::string &name) {
   for (char c : name) s += static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   if (s == "equal-area") return Projection::EqualArea;
   if (s == "equal-angle") return Projection::EqualAngle;
-  throw Error(ErrorKind::InvalidParameter, "unknown projection \"" + name + "\"",
+  throw Error(ErrorKind::InvalidParameter, "unknown projection \"" + echo_text(name, 60) + "\"",
               "Accepted: equal-area (Lambert azimuthal, the default) or equal-angle (stereographic).");
 }
 

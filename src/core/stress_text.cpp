@@ -56,7 +56,7 @@ class TensorReader {
         once(have_flags, key);
         flags(t.flags);
       } else {
-        fail("unknown key \"" + key + "\"");
+        fail("unknown key \"" + echo_text(key, 40) + "\"");
       }
       skip_ws();
       if (*p_ == ',') { ++p_; continue; }
@@ -75,7 +75,7 @@ class TensorReader {
 
   [[noreturn]] void fail(const std::string &why) const {
     throw Error(ErrorKind::InvalidText,
-                std::string("invalid input syntax for type stress_tensor: \"") + text_ + "\"",
+                std::string("invalid input syntax for type stress_tensor: \"") + echo_text(text_) + "\"",
                 why + "; accepted: {\"components\": [nn, ee, dd, ne, nd, ed], \"n\": count} and optional "
                       "\"misfit\", \"cones\" [3], \"phi_interval\" [2], \"friction\", \"flags\" [\"focal_joint\", \"not_converged\", \"friction_at_limit\"]");
   }
@@ -141,7 +141,7 @@ class TensorReader {
       if (s == kStressFlagFocal) f |= kStressFocalJoint;
       else if (s == kStressFlagNotConverged) f |= kStressNotConverged;
       else if (s == kStressFlagFrictionAtLimit) f |= kStressFrictionAtLimit;
-      else fail("unknown flag \"" + s + "\"");
+      else fail("unknown flag \"" + echo_text(s, 40) + "\"");
       skip_ws();
       if (*p_ == ',') { ++p_; continue; }
       if (*p_ == ']') { ++p_; return; }

@@ -22,6 +22,13 @@ char *format_numbers(const double *v, int n) {
   return out;
 }
 
+const char *echo_arg(const char *s) {
+  const int len = static_cast<int>(strnlen(s, striae::kEchoBytes + 1));
+  if (len <= static_cast<int>(striae::kEchoBytes)) return pstrdup(s);
+  const int keep = pg_mbcliplen(s, len, static_cast<int>(striae::kEchoBytes));
+  return psprintf("%.*s...", keep, s);
+}
+
 MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
   MemoryContext ctx;
   if (!AggCheckCallContext(fcinfo, &ctx))

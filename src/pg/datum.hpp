@@ -25,6 +25,11 @@ inline Datum result(const T &v) {
 // extra_float_digits <= 0).
 char *format_numbers(const double *v, int n);
 
+// A user argument as an error message quotes it: at most striae::kEchoBytes
+// bytes, cut at a character boundary of the database encoding, "..." when cut
+// (DEVELOPERS.md, "Errors"). palloc'd.
+const char *echo_arg(const char *s);
+
 // Text datum from a C string.
 inline Datum text_result(const char *s) { return PointerGetDatum(cstring_to_text(s)); }
 

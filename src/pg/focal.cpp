@@ -38,7 +38,7 @@ STRIAE_FUNCTION(fault_slip_moment_tensor) {
   else if (pg_strcasecmp(frame, "use") == 0) which = 1;
   if (which < 0)
     ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
-                    errmsg("unknown moment tensor frame \"%s\"", frame),
+                    errmsg("unknown moment tensor frame \"%s\"", echo_arg(frame)),
                     errhint("Accepted: 'ned' (nn, ee, dd, ne, nd, ed) or 'use' (rr, tt, pp, rt, rp, tp).")));
   const auto m = guarded([&] { return which == 0 ? moment_tensor_ned(f) : moment_tensor_use(f); });
   return float8_array(m.data(), 6);

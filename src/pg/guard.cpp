@@ -26,6 +26,34 @@ int sqlstate_of(striae::ErrorKind k) noexcept {
   return ERRCODE_DATA_EXCEPTION;
 }
 
+// Make s valid in the database encoding, in place: the core quotes whole
+// UTF-8 characters and copy() above cuts at a byte count, so a message may end
+// in part of a character, or (in a database of another multi-byte encoding)
+// hold a byte sequence that is not a character there. Each byte that does not
+// start a valid character becomes '?', and a character cut at the end goes.
+// Without this a client in another encoding gets 22021 (character not in
+// repertoire) instead of the error. pg_encoding_verifymbchar never raises.
+void make_valid(char *s) {
+  const int enc = GetDatabaseEncoding();
+  size_t len = std::strlen(s);
+  for (size_t i = 0; i < len;) {
+    const int n = pg_encoding_verifymbchar(enc, s + i, static_cast<int>(len - i));
+    if (n > 0) {
+      i += static_cast<size_t>(n);
+      continue;
+    }
+    // Not a whole character here: an incomplete one at the very end is cut,
+    // anything else is replaced byte by byte.
+    const int want = pg_encoding_mblen_bounded(enc, s + i);
+    if (want > 1 && i + static_cast<size_t>(want) > len) {
+      s[i] = '\0';
+      len = i;
+      break;
+    }
+    s[i++] = '?';
+  }
+}
+
 }  // namespace
 
 void capture_current(Failure &f) noexcept {
@@ -60,7 +88,11 @@ bool interrupt_pending() {
   return InterruptPending && (QueryCancelPending || ProcDiePending) && INTERRUPTS_CAN_BE_PROCESSED();
 }
 
-void raise(const Failure &f) {
+void raise(const Failure &f0) {
+  Failure f = f0;
+  make_valid(f.message);
+  make_valid(f.detail);
+  make_valid(f.hint);
   if (f.sqlstate == kCancelledState) {
     // The core stopped because the hook saw a pending cancel or terminate:
     // let the server report it as it always does (statement timeout, user

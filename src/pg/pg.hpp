@@ -15,6 +15,7 @@ extern "C" {
 #include "postgres.h"
 #include "fmgr.h"
 #include "miscadmin.h"
+#include "mb/pg_wchar.h"
 #include "funcapi.h"
 #include "libpq/pqformat.h"
 #include "utils/array.h"
