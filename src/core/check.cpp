@@ -75,7 +75,8 @@ void write_reason(const Error &e, char *reason, size_t cap) {
   // "invalid input syntax for type plane: "<literal>"" says only that the
   // literal (already in the screening output) was bad: the detail says why.
   std::string r;
-  if (starts_with(e.what(), "invalid input syntax") && !e.detail.empty())
+  if ((starts_with(e.what(), "invalid input syntax") || starts_with(e.what(), "value out of range for type")) &&
+      !e.detail.empty())
     r = e.detail;
   else if (!e.detail.empty())
     r = std::string(e.what()) + " (" + e.detail + ")";

@@ -23,7 +23,7 @@ std::vector<double> dihedra_node_table(double spacing) {
 // Header of an empty state.
 DihedraHeader dihedra_init(double spacing) {
   DihedraHeader h;
-  h.spacing = spacing;
+  h.spacing = grid_spacing(spacing);
   h.data_count = 0;
   h.node_count = grid_node_count(spacing);  // checks the spacing
   h.reserved = 0;

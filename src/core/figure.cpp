@@ -381,6 +381,9 @@ struct Parser {
       const char *end = p;
       while (*end && std::strchr("0123456789+-.eE", *end)) ++end;
       const auto r = std::from_chars(p, end, v);
+      if (r.ec == std::errc::result_out_of_range)
+        throw Error(ErrorKind::OutOfRange, std::string("value out of range for type net_figure: \"") + echo_text(text, 60) + "\"",
+                    "The number at offset " + std::to_string(p - text) + " is beyond the range of float8.");
       if (r.ec != std::errc() || r.ptr != end || end == p) fail("expected a number at offset " + std::to_string(p - text) + ".");
       if (!std::isfinite(v)) fail("numbers must be finite.");
       out.push_back(v);

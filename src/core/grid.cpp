@@ -5,14 +5,24 @@
 
 namespace striae {
 
-void check_grid_spacing(double s) {
-  if (!std::isfinite(s) || s < kMinGridSpacing || s > kMaxGridSpacing)
+double grid_spacing(double s) {
+  // The limits with the same relative slack as the divisor test, so that a
+  // spacing that rounds to 45 or 0.5 is the grid of 45 or 0.5.
+  if (!std::isfinite(s) || s < kMinGridSpacing * (1 - 1e-9) || s > kMaxGridSpacing * (1 + 1e-9))
     throw Error(ErrorKind::InvalidParameter, "grid spacing must be between 0.5 and 45 degrees",
                 "", "Use a spacing that divides 90, e.g. 1, 2, 2.5, 5 or 10.");
   const double rings = 90.0 / s;
-  if (std::fabs(rings - std::round(rings)) > 1e-9)
+  const double k = std::round(rings);
+  if (std::fabs(rings - k) > 1e-9)
     throw Error(ErrorKind::InvalidParameter, "grid spacing must divide 90 degrees into whole rings",
                 "", "Use a spacing that divides 90, e.g. 1, 2, 2.5, 5 or 10.");
+  return 90.0 / k;
+}
+
+void check_grid_spacing(double s) {
+  if (grid_spacing(s) != s)
+    throw Error(ErrorKind::InvalidParameter, "grid spacing is not exactly 90 divided by a whole number",
+                "Grids store the spacing 90 / k; " + std::to_string(s) + " is near one but not equal.");
 }
 
 namespace {
@@ -29,9 +39,10 @@ int ring_size(int i, int rings, double s) {
 
 template <class F>
 void for_each_node(double s, F &&f) {
-  check_grid_spacing(s);
+  s = grid_spacing(s);
   const int rings = static_cast<int>(std::lround(90.0 / s));
   for (int i = 0; i <= rings; ++i) {
+    poll_interrupts();  // once a ring (at most 181 rings)
     const int m = ring_size(i, rings, s);
     const double plunge = i == rings ? 90.0 : i * s;
     const double step = (i == 0) ? 180.0 / m : 360.0 / m;
@@ -90,6 +101,11 @@ namespace {
               "\"values\": [...]}, with one value per grid node, as sphere_grid output prints it.");
 }
 
+[[noreturn]] void grid_range(const char *text, const std::string &detail) {
+  throw Error(ErrorKind::OutOfRange, "value out of range for type sphere_grid: \"" + echo_text(text, 80) + "\"",
+              detail);
+}
+
 struct Cursor {
   const char *text;
   size_t i;
@@ -109,8 +125,24 @@ struct Cursor {
     while (*e && std::strchr("+-.0123456789eE", *e)) ++e;
     double v;
     auto r = std::from_chars(*b == '+' ? b + 1 : b, e, v);
+    if (e != b && r.ec == std::errc::result_out_of_range && r.ptr == e)
+      grid_range(text, "the number " + echo_text(std::string(b, e), 40) + " is beyond the range of float8");
     if (e == b || r.ec != std::errc() || r.ptr != e || !std::isfinite(v))
       grid_syntax(text, "expected a finite number");
+    i = static_cast<size_t>(e - text);
+    return v;
+  }
+  // A whole number, read as an integer (no rounding through double).
+  int64_t integer() {
+    blanks();
+    const char *b = text + i;
+    const char *e = b;
+    while (*e && std::strchr("+-.0123456789eE", *e)) ++e;
+    int64_t v;
+    auto r = std::from_chars(*b == '+' ? b + 1 : b, e, v);
+    if (e != b && r.ec == std::errc::result_out_of_range && r.ptr == e)
+      grid_range(text, "n " + echo_text(std::string(b, e), 40) + " is beyond the range of bigint");
+    if (e == b || r.ec != std::errc() || r.ptr != e) grid_syntax(text, "n must be a whole number, written as an integer");
     i = static_cast<size_t>(e - text);
     return v;
   }
@@ -141,16 +173,13 @@ GridHeader parse_grid_header(const char *text) {
   c.expect(",");
   c.expect("\"n\"");
   c.expect(":");
-  const double n = c.number();
-  if (!(n >= 1 && n <= 9.007199254740992e15) || n != std::floor(n))
-    grid_syntax(text, "n must be a whole number of data, at least 1");
-  h.n = static_cast<int64_t>(n);
+  h.n = c.integer();  // range checked by check_grid, as for binary input
   c.expect(",");
   c.expect("\"values\"");
   c.expect(":");
   c.expect("[");
   h.values_at = c.i;
-  check_grid_spacing(h.spacing);
+  h.spacing = grid_spacing(h.spacing);
   return h;
 }
 
@@ -186,12 +215,13 @@ void check_grid(GridKind kind, double spacing, int64_t n, const double *values, 
   // The bounds text input accepts (parse_grid_header): binary input must not
   // accept a value that a dump could not restore (found by fuzzing).
   if (n < 1 || n > (int64_t(1) << 53))
-    throw Error(ErrorKind::DataError, "sphere_grid data count must be from 1 to 2^53");
+    throw Error(ErrorKind::OutOfRange, "sphere_grid data count " + std::to_string(n) + " is out of range",
+                "Accepted: 1 to 2^53 (9007199254740992), the most data a grid aggregate counts.");
   for (size_t k = 0; k < count; ++k) {
     const double v = values[k];
     const bool ok = std::isfinite(v) && v >= 0 && (kind != GridKind::RightDihedra || v <= 100);
     if (!ok)
-      throw Error(ErrorKind::DataError, "sphere_grid value out of range",
+      throw Error(ErrorKind::OutOfRange, "sphere_grid value out of range",
                   kind == GridKind::RightDihedra ? "Right-dihedra values are percentages, 0 to 100."
                                                  : "Density values are finite and not negative.");
   }

@@ -16,12 +16,20 @@ namespace striae {
 constexpr double kMinGridSpacing = 0.5;   // degrees
 constexpr double kMaxGridSpacing = 45.0;  // degrees
 
-// Throws InvalidParameter unless spacing is finite and in
-// [kMinGridSpacing, kMaxGridSpacing] and divides 90 into a whole number of
-// rings within 1e-9 (so the top node is exactly at plunge 90).
+// The spacing a grid uses for a requested one: InvalidParameter unless the
+// request is finite, in [kMinGridSpacing, kMaxGridSpacing] and divides 90 into
+// a whole number k of rings within 1e-9; then exactly 90 / k. So 2.50000000001
+// is the grid of 2.5, stored and printed as 2.5, whichever way it came in (an
+// aggregate's parameter, sphere_grid text or binary input); grid_spacing of its
+// own result returns it unchanged.
+double grid_spacing(double spacing_deg);
+
+// Throws InvalidParameter unless spacing is a value grid_spacing returns
+// (stored grids and aggregate states hold only such values).
 void check_grid_spacing(double spacing_deg);
 
-// Number of nodes for a spacing (checked).
+// Number of nodes for a spacing (as grid_spacing accepts; the layout is that of
+// grid_spacing(spacing) in this and the next functions).
 int grid_node_count(double spacing_deg);
 
 // Node lines (trend, plunge), in layout order.

@@ -80,8 +80,17 @@ bool is_alpha(char c) { return c >= 'a' && c <= 'z'; }
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 bool is_blank(char c) { return c == ' ' || c == '\t' || c == '\n' || c == '\r'; }
 
+// A number for a message: the shortest text that reads back to it.
+std::string num_text(double v) {
+  char buf[32];
+  const auto r = std::to_chars(buf, buf + sizeof buf, v);
+  return std::string(buf, r.ptr);
+}
+
 // Parse an unsigned decimal at p (digits, '.', exponent); returns end or nullptr.
-const char *scan_number(const char *p, const char *end, double &out) {
+// A number beyond the range of double (1e309, or 1e-400, which would read as 0)
+// is an out-of-range error.
+const char *scan_number(const Parser &ps, const char *p, const char *end, double &out) {
   const char *q = p;
   bool digits = false;
   while (q < end && is_digit(*q)) ++q, digits = true;
@@ -99,6 +108,8 @@ const char *scan_number(const char *p, const char *end, double &out) {
     }
   }
   auto res = std::from_chars(p, q, out, std::chars_format::general);
+  if (res.ec == std::errc::result_out_of_range)
+    ps.out_of_range("the number " + echo_text(std::string(p, q), 40), "numbers within the range of float8");
   if (res.ec != std::errc() || res.ptr != q) return nullptr;
   return q;
 }
@@ -119,12 +130,13 @@ void classify(Parser &ps, const char *b, const char *e) {
     if ((*p == 'n' || *p == 's') && p + 1 < e && (is_digit(p[1]) || p[1] == '.')) {
       const bool north = *p == 'n';
       double a;
-      const char *q = scan_number(p + 1, e, a);
+      const char *q = scan_number(ps, p + 1, e, a);
       if (!q) ps.fail("bad number in a quadrant bearing");
       q = skip_degree(q, e);
       if (q + 1 != e || (*q != 'e' && *q != 'w'))
         ps.fail("a quadrant bearing is N or S, an angle from 0 to 90, then E or W, as in N70W");
-      if (!(a >= 0 && a <= 90)) ps.fail("the angle of a quadrant bearing must be from 0 to 90");
+      if (!(a >= 0 && a <= 90))
+        ps.out_of_range("the angle " + num_text(a) + " of a quadrant bearing", "0 to 90 degrees");
       const bool east = *q == 'e';
       double az = north ? (east ? a : 360.0 - a) : (east ? 180.0 - a : 180.0 + a);
       x.kind = FieldKind::Bearing;
@@ -147,7 +159,7 @@ void classify(Parser &ps, const char *b, const char *e) {
     ++p;
   }
   double v;
-  const char *q = scan_number(p, e, v);
+  const char *q = scan_number(ps, p, e, v);
   if (!q) ps.fail("expected a number");
   q = skip_degree(q, e);
   x.value = neg ? -v : v;
@@ -258,18 +270,21 @@ double check_azimuth(Parser &ps, const Field &x, const char *what) {
 
 // Parse the plane part of a literal starting at field 0. Returns the number of
 // fields consumed; sets rhr_given if the strike as written is the
-// right-hand-rule strike (no letters flipped it).
-int parse_plane_fields(Parser &ps, Plane &out, bool &rhr_given, bool allow_tail) {
+// right-hand-rule strike (no letters flipped it), and then rhr_strike to that
+// strike as written: a rake is measured from it, and the plane's canonical
+// strike may differ (a vertical plane striking 270 is stored as 90/90; a
+// horizontal one as 0/0), so the rake must go with the written strike into
+// make_fault_slip, exactly as the numeric constructor and binary input do.
+int parse_plane_fields(Parser &ps, Plane &out, bool &rhr_given, double &rhr_strike, bool allow_tail) {
   if (ps.n < 2) ps.fail("expected at least a strike and a dip");
   const Field &a = ps.f[0], &b = ps.f[1];
   if (a.kind != FieldKind::Number && a.kind != FieldKind::Bearing)
     ps.fail("expected a strike (azimuth or quadrant bearing) first");
-  if (a.kind == FieldKind::Number && a.signed_ && a.value < 0)
-    ps.fail("a strike cannot be negative");
   if (b.kind != FieldKind::Number && b.kind != FieldKind::NumberLetters)
     ps.fail("expected a dip after the strike");
-  if (b.signed_) ps.fail("a dip is written without a sign");
+  // A negative strike or dip is a number out of range (make_plane says so, 22003).
   const double strike = a.value, dip = b.value;
+  rhr_strike = strike;
   // Letters after the dip: attached ('64SW') or as the next field ('64 SW').
   const Field *q = nullptr;
   int used = 2;
@@ -291,6 +306,7 @@ int parse_plane_fields(Parser &ps, Plane &out, bool &rhr_given, bool allow_tail)
     const double rhr = strike_toward(ps, strike, *q, "dip quadrant");
     out = make_plane(rhr, dip);
     rhr_given = a.kind == FieldKind::Number && std::fabs(norm360(strike) - rhr) < 1e-12;
+    rhr_strike = strike;
     return used;
   }
   if (a.kind == FieldKind::Bearing)
@@ -339,7 +355,8 @@ Plane parse_plane(const char *text) {
   split(ps);
   Plane p;
   bool rhr;
-  parse_plane_fields(ps, p, rhr, false);
+  double written;
+  parse_plane_fields(ps, p, rhr, written, false);
   return p;
 }
 
@@ -347,14 +364,12 @@ Line parse_line(const char *text) {
   Parser ps{"lineation", text, kLineHint, lower(text), {}, 0};
   double plunge, trend;
   if (try_arrow(ps, plunge, trend, "plunge", "trend")) {
-    if (plunge < 0) ps.fail("in the arrow form the plunge is from 0 to 90");
+    if (plunge < 0) ps.out_of_range("the plunge " + num_text(plunge), "in the arrow form, 0 to 90 degrees");
     return make_line(trend, plunge);
   }
   split(ps);
   if (ps.n != 2) ps.fail("expected a trend and a plunge");
   const double trend2 = check_azimuth(ps, ps.f[0], "trend (azimuth or quadrant bearing)");
-  if (ps.f[0].kind == FieldKind::Number && ps.f[0].signed_ && ps.f[0].value < 0)
-    ps.fail("a trend cannot be negative");
   if (ps.f[1].kind != FieldKind::Number) ps.fail("expected a plunge after the trend");
   return make_line(trend2, ps.f[1].value);
 }
@@ -366,7 +381,8 @@ FaultSlip parse_fault_slip(const char *text) {
   split(ps);
   Plane p;
   bool rhr;
-  const int used = parse_plane_fields(ps, p, rhr, true);
+  double written;  // the right-hand-rule strike as written, when rhr
+  const int used = parse_plane_fields(ps, p, rhr, written, true);
   if (used >= ps.n) ps.fail("expected a rake after the dip");
   const Field &r = ps.f[used];
   const int rest = ps.n - used - 1;  // fields after the rake
@@ -375,10 +391,13 @@ FaultSlip parse_fault_slip(const char *text) {
     if (!rhr)
       ps.fail("a rake is measured from the right-hand-rule strike; with a flipped strike or "
               "a dd form give a pitch from a named strike end, as in '290/64S/75W N'");
-    return make_fault_slip(p.strike, p.dip, r.value);
+    return make_fault_slip(written, p.dip, r.value);
   }
   if (rest == 0) ps.fail("a pitch needs a slip sense, as in '110/64/75W N'");
-  if (r.signed_) ps.fail("an unsigned rake or pitch followed by a sense is written without a sign");
+  if (r.signed_ && r.value < 0)
+    ps.out_of_range(std::string(r.kind == FieldKind::Number ? "the unsigned rake " : "the pitch ") + num_text(r.value),
+                    r.kind == FieldKind::Number ? "an unsigned rake from 0 to 180 degrees, its sign given by the sense"
+                                                : "a pitch from 0 to 90 degrees");
   // Collect the sense from the remaining fields.
   std::string sense_text;
   for (int i = used + 1; i < ps.n; ++i) {
@@ -403,7 +422,8 @@ FaultSlip parse_fault_slip(const char *text) {
   if (r.kind == FieldKind::Number) {
     // Unsigned rake q in [0,180]: normal gives -q, reverse +q.
     const double q = r.value;
-    if (!(q >= 0 && q <= 180)) ps.fail("an unsigned rake is from 0 to 180");
+    if (!(q >= 0 && q <= 180))
+      ps.out_of_range("the unsigned rake " + num_text(q), "an unsigned rake from 0 to 180 degrees");
     const bool horizontal = q == 0 || q == 180;
     if (sense.dip != 0 && horizontal)
       ps.fail("a horizontal slip (rake 0 or 180) cannot be normal or reverse");
@@ -418,12 +438,12 @@ FaultSlip parse_fault_slip(const char *text) {
       ps.fail("a rake is measured from the right-hand-rule strike; with a flipped strike or "
               "a dd form give a pitch from a named strike end, as in '290/64S/75W N'");
     const double rake = sense.dip > 0 ? -q : q;
-    return make_fault_slip(p.strike, p.dip, rake);
+    return make_fault_slip(written, p.dip, rake);
   }
   if (r.kind != FieldKind::NumberLetters) ps.fail("expected a rake or a pitch after the dip");
   // Pitch psi in [0,90] from the strike end named by the attached letters.
   const double psi = r.value;
-  if (!(psi >= 0 && psi <= 90)) ps.fail("a pitch is from 0 to 90");
+  if (!(psi >= 0 && psi <= 90)) ps.out_of_range("the pitch " + num_text(psi), "a pitch from 0 to 90 degrees");
   const double end_az = compass_azimuth(r.letters, r.nletters);
   if (end_az < 0)
     ps.fail("\"" + upper(r.letters, r.nletters) +

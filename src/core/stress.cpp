@@ -42,6 +42,7 @@ StressTensor make_tensor(const double c[6], int64_t count) {
   t.data_count = count;
   t.flags = 0;
   t.version = kStressTensorVersion;
+  clear_negative_zeros(t);
   return t;
 }
 
@@ -188,6 +189,12 @@ void check_stress_tensor(const StressTensor &t) {
   } else if (t.friction != 0) {
     bad("undefined friction is not zero");
   }
+}
+
+void clear_negative_zeros(StressTensor &t) {
+  double *f[] = {&t.nn, &t.ee, &t.dd, &t.ne, &t.nd, &t.ed, &t.mean_misfit,
+                 &t.cone[0], &t.cone[1], &t.cone[2], &t.phi_lo, &t.phi_hi, &t.friction};
+  for (double *v : f) *v += 0.0;  // -0 + 0 = +0; every other value is unchanged
 }
 
 // Symmetric matrix of the stored components (compression positive).

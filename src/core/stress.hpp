@@ -69,6 +69,11 @@ static_assert(std::is_trivially_destructible<StressTensor>::value, "lives in pal
 // fields exactly 0. Used by binary recv and by every function taking a tensor from SQL.
 void check_stress_tensor(const StressTensor &t);
 
+// Turn every -0 field into +0: a stored tensor never holds -0, so it never
+// prints "-0" and its text reads back to the same bytes (text and binary input,
+// and every tensor the core makes, pass through this).
+void clear_negative_zeros(StressTensor &t);
+
 // The tensor as a symmetric 3x3 matrix, compression positive (no checks).
 Mat3 stress_matrix(const StressTensor &t);
 

@@ -112,6 +112,10 @@ class TensorReader {
     const char *e = number_end();
     double v = 0;
     auto r = std::from_chars(p_, e, v, std::chars_format::general);
+    if (r.ec == std::errc::result_out_of_range && r.ptr == e)
+      throw Error(ErrorKind::OutOfRange,
+                  std::string("value out of range for type stress_tensor: \"") + echo_text(text_) + "\"",
+                  "The number " + echo_text(std::string(p_, e), 40) + " is beyond the range of float8.");
     if (r.ec != std::errc() || r.ptr != e) fail("bad number");
     p_ = e;
     return v;
@@ -120,6 +124,10 @@ class TensorReader {
     const char *e = number_end();
     int64_t v = 0;
     auto r = std::from_chars(p_, e, v);
+    if (r.ec == std::errc::result_out_of_range && r.ptr == e)
+      throw Error(ErrorKind::OutOfRange,
+                  std::string("value out of range for type stress_tensor: \"") + echo_text(text_) + "\"",
+                  "\"n\" " + echo_text(std::string(p_, e), 40) + " is beyond the range of bigint.");
     if (r.ec != std::errc() || r.ptr != e) fail("\"n\" must be an integer");
     p_ = e;
     return v;
@@ -152,6 +160,10 @@ class TensorReader {
 
 }  // namespace
 
-StressTensor parse_stress_tensor(const char *text) { return TensorReader(text).read(); }
+StressTensor parse_stress_tensor(const char *text) {
+  StressTensor t = TensorReader(text).read();
+  clear_negative_zeros(t);
+  return t;
+}
 
 }  // namespace striae

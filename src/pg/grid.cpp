@@ -68,7 +68,9 @@ STRIAE_FUNCTION(sphere_grid_recv) {
     ereport(ERROR, (errcode(ERRCODE_INVALID_BINARY_REPRESENTATION),
                     errmsg("invalid binary format version %d for type sphere_grid", version)));
   const int32 kind = pq_getmsgint(buf, 4);
-  const double spacing = pq_getmsgfloat8(buf);
+  // Snapped as text input snaps it (grid_spacing), so both accept the same grids.
+  const double raw_spacing = pq_getmsgfloat8(buf);
+  const double spacing = guarded([&] { return grid_spacing(raw_spacing); });
   const int64 n = pq_getmsgint64(buf);
   const int32 count = pq_getmsgint(buf, 4);
   const int expected = guarded([&] { return grid_node_count(spacing); });

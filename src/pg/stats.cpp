@@ -271,7 +271,6 @@ void density_compact(DensityAgg *a) {
   a->m = guarded([&] { return compact_bins(a->ids, a->counts, a->m); });
 }
 
-void check_spacing(double spacing) { guarded([&] { check_grid_spacing(spacing); }); }
 
 Datum density_accum(FunctionCallInfo fcinfo, bool is_plane) {
   MemoryContext ctx = agg_context(fcinfo, "density_grid");
@@ -281,9 +280,8 @@ Datum density_accum(FunctionCallInfo fcinfo, bool is_plane) {
     ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("density_grid spacing must not be NULL")));
   const double spacing = PG_GETARG_FLOAT8(2);
   if (a == nullptr) {
-    check_spacing(spacing);
-    a = density_new(ctx, spacing, kDensityInitialCap);
-  } else if (spacing != a->spacing) {
+    a = density_new(ctx, guarded([&] { return grid_spacing(spacing); }), kDensityInitialCap);
+  } else if (spacing != a->spacing && guarded([&] { return grid_spacing(spacing); }) != a->spacing) {
     ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
                     errmsg("density_grid spacing must be the same for every row of a group")));
   }

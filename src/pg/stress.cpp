@@ -26,7 +26,7 @@ namespace {
 // ---- text form ------------------------------------------------------------------
 
 void append_number(StringInfo b, double v) {
-  char *s = float8out_internal(v);
+  char *s = float8out_internal(v + 0.0);  // never "-0" (a value stored before 0.2.0 may hold -0)
   appendStringInfoString(b, s);
   pfree(s);
 }
@@ -125,7 +125,10 @@ STRIAE_FUNCTION(stress_tensor_recv) {
   t.data_count = pq_getmsgint64(buf);
   t.flags = static_cast<uint32_t>(pq_getmsgint(buf, 4));
   t.version = kStressTensorVersion;
-  guarded([&] { check_stress_tensor(t); });
+  guarded([&] {
+    clear_negative_zeros(t);
+    check_stress_tensor(t);
+  });
   return result(t);
 }
 
@@ -136,7 +139,7 @@ STRIAE_FUNCTION(stress_tensor_send) {
   StringInfoData buf;
   pq_begintypsend(&buf);
   pq_sendbyte(&buf, kWireVersion);
-  for (double v : f) pq_sendfloat8(&buf, v);
+  for (double v : f) pq_sendfloat8(&buf, v + 0.0);  // never -0, as in the text output
   pq_sendint64(&buf, t.data_count);
   pq_sendint32(&buf, t.flags);
   PG_RETURN_BYTEA_P(pq_endtypsend(&buf));
@@ -441,12 +444,12 @@ STRIAE_FUNCTION(right_dihedra_accum) {
   if (a == nullptr) {
     const DihedraHeader h = guarded([&] { return dihedra_init(spacing); });
     a = dihedra_new(ctx, h);
-  } else if (spacing != a->h.spacing) {
+  } else if (spacing != a->h.spacing && guarded([&] { return grid_spacing(spacing); }) != a->h.spacing) {
     dihedra_spacing_mismatch();
   }
   if (PG_ARGISNULL(1)) PG_RETURN_POINTER(a);
   const SlipDatum d = slip_datum(fcinfo, 1);
-  const double *nodes = dihedra_nodes(spacing);
+  const double *nodes = dihedra_nodes(a->h.spacing);
   guarded([&] { dihedra_add(a->h, a->counts, nodes, d.n, d.u); });
   PG_RETURN_POINTER(a);
 }

@@ -20,7 +20,8 @@ COMMENT ON TYPE stress_tensor IS
 COMMENT ON FUNCTION stress_tensor_in(cstring) IS 'text input of stress_tensor (validated: trace 0 and unit norm within 1e-9, ranges of the quality measures)';
 COMMENT ON FUNCTION stress_tensor_out(stress_tensor) IS 'text output of stress_tensor (float8 conventions; undefined measures omitted)';
 COMMENT ON FUNCTION stress_tensor_recv(internal) IS 'binary input of stress_tensor (version byte checked, value validated)';
-COMMENT ON FUNCTION stress_tensor_send(stress_tensor) IS 'binary output of stress_tensor (version byte, 12 float8, int8 count, int4 flags)';
+COMMENT ON FUNCTION stress_tensor_send(stress_tensor) IS
+  'binary output of stress_tensor (version byte; 13 float8: the 6 components, mean misfit, 3 confidence cones, the 2 ends of the Phi interval, friction; int8 data count; int4 flags); never -0';
 
 CREATE FUNCTION stress_tensor(sigma1 lineation, sigma3 lineation, shape_ratio float8) RETURNS stress_tensor
   AS 'MODULE_PATHNAME', 'stress_tensor_from_axes' LANGUAGE C IMMUTABLE STRICT PARALLEL SAFE;

@@ -352,16 +352,49 @@ TEST(GridBinary, DataCountRangeOfText) {
   const int count = grid_node_count(45);
   std::vector<double> v(static_cast<size_t>(count), 10.0);
   EXPECT_NO_THROW(check_grid(GridKind::RightDihedra, 45, int64_t(1) << 53, v.data(), v.size()));
+  // A count out of range is 22003 in both inputs (README, "Errors": numbers out of range).
   EXPECT_EQ(error_of([&] { check_grid(GridKind::RightDihedra, 45, (int64_t(1) << 53) + 1, v.data(), v.size()); }).kind,
-            ErrorKind::DataError);
+            ErrorKind::OutOfRange);
   EXPECT_EQ(error_of([&] { check_grid(GridKind::RightDihedra, 45, 2305843009213693956, v.data(), v.size()); }).kind,
-            ErrorKind::DataError);
+            ErrorKind::OutOfRange);
   // and text input reads 2^53 itself
   std::string s = "{\"kind\": \"right_dihedra\", \"spacing\": 45, \"n\": 9007199254740992, \"values\": [";
   for (int k = 0; k < count; ++k) s += k ? ", 10" : "10";
   s += "]}";
   const GridHeader h = parse_grid_header(s.c_str());
   EXPECT_EQ(h.n, int64_t(1) << 53);
+}
+
+// Text input read "n" as a double: 2^53 + 1 rounded to 2^53 and was accepted,
+// while binary input rejected it. Now "n" is read as an integer, exactly, and
+// both inputs reject it; "1e3" or "3.0" is not an integer.
+TEST(GridText, DataCountIsAnInteger) {
+  auto text = [](const char *n) {
+    std::string s = std::string("{\"kind\": \"density\", \"spacing\": 45, \"n\": ") + n + ", \"values\": [";
+    for (int k = 0; k < 11; ++k) s += k ? ", 1" : "1";
+    return s + "]}";
+  };
+  EXPECT_EQ(parse_grid_header(text("9007199254740993").c_str()).n, (int64_t(1) << 53) + 1);
+  EXPECT_EQ(parse_grid_header(text("9223372036854775807").c_str()).n, INT64_MAX);
+  EXPECT_EQ(error_of([&] { parse_grid_header(text("9223372036854775808").c_str()); }).kind, ErrorKind::OutOfRange);
+  EXPECT_EQ(error_of([&] { parse_grid_header(text("1e3").c_str()); }).kind, ErrorKind::InvalidText);
+  EXPECT_EQ(error_of([&] { parse_grid_header(text("3.0").c_str()); }).kind, ErrorKind::InvalidText);
+}
+
+// A spacing within 1e-9 of 90 / k is that spacing, exactly (stored and printed
+// rounded); text and binary input both go through grid_spacing.
+TEST(GridText, SpacingSnapped) {
+  EXPECT_EQ(grid_spacing(2.50000000001), 2.5);
+  EXPECT_EQ(grid_spacing(90.0 / 7.0 + 1e-12), 90.0 / 7.0);
+  EXPECT_EQ(grid_spacing(grid_spacing(12.857142857143)), grid_spacing(12.857142857143));
+  EXPECT_EQ(error_of([&] { grid_spacing(2.5001); }).kind, ErrorKind::InvalidParameter);
+  EXPECT_NO_THROW(check_grid_spacing(2.5));
+  EXPECT_EQ(error_of([&] { check_grid_spacing(2.50000000001); }).kind, ErrorKind::InvalidParameter);
+  std::string s = "{\"kind\": \"density\", \"spacing\": 45.0000000001, \"n\": 1, \"values\": [";
+  for (int k = 0; k < 11; ++k) s += k ? ", 1" : "1";
+  s += "]}";
+  EXPECT_EQ(parse_grid_header(s.c_str()).spacing, 45.0);
+  EXPECT_EQ(dihedra_init(2.50000000001).spacing, 2.5);
 }
 
 // ---- the serialized forms moved from the glue (stress_phases, misfit_summary, moment_tensor_sum) ----

@@ -3,6 +3,8 @@
 // practice, no source).
 #include <gtest/gtest.h>
 
+#include <cstdio>
+
 #include "parse.hpp"
 
 using namespace striae;
@@ -73,19 +75,26 @@ TEST(ParsePlane, Errors) {
   EXPECT_EQ(kind_of([] { parse_plane("110//64"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_plane("nan/64"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_plane("inf/64"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_plane("110/-64"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_plane("-110/64"); }), ErrorKind::InvalidText);
+  // Numbers out of range are 22003 whatever their sign (README, "Errors"):
+  // -110 is out of range as 400 is, and as binary input and plane(-110, 64) say.
+  EXPECT_EQ(kind_of([] { parse_plane("110/-64"); }), ErrorKind::OutOfRange);
+  EXPECT_EQ(kind_of([] { parse_plane("-110/64"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_plane("400/64"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_plane("110/95"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_plane("0/30S"); }), ErrorKind::InvalidText);   // E or W?
   EXPECT_EQ(kind_of([] { parse_plane("30/40NE"); }), ErrorKind::InvalidText); // dips 120 or 300
   EXPECT_EQ(kind_of([] { parse_plane("N70W 64"); }), ErrorKind::InvalidText); // bearing needs letters
-  EXPECT_EQ(kind_of([] { parse_plane("N95W 64SW"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_plane("N95W 64SW"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_plane("110/64X"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_plane("110/64 SSW"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_plane("64->"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_plane("110/64;"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_plane("1e999/64"); }), ErrorKind::InvalidText);
+  // Beyond the range of float8 (as '1e309'::float8 and '1e-400'::float8): 22003.
+  EXPECT_EQ(kind_of([] { parse_plane("1e999/64"); }), ErrorKind::OutOfRange);
+  EXPECT_EQ(kind_of([] { parse_plane("1e309/45"); }), ErrorKind::OutOfRange);
+  EXPECT_EQ(kind_of([] { parse_plane("110/1e-400"); }), ErrorKind::OutOfRange);
+  EXPECT_PLANE("110/1e-310", 110, 1e-310);  // a subnormal reads as binary input takes it
+  EXPECT_PLANE("+110/+64", 110, 64);
 }
 
 TEST(ParseLine, Forms) {
@@ -103,7 +112,8 @@ TEST(ParseLine, Errors) {
   EXPECT_EQ(kind_of([] { parse_line("120"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_line("120/30/4"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_line("120/30SE"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_line("-30->120"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_line("-30->120"); }), ErrorKind::OutOfRange);
+  EXPECT_EQ(kind_of([] { parse_line("-120/30"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_line("120/91"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_line("361/30"); }), ErrorKind::OutOfRange);
 }
@@ -134,14 +144,15 @@ TEST(ParseFault, Errors) {
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/75 X"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/30E D N"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/-75 N"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/-75 N"); }), ErrorKind::OutOfRange);  // unsigned rake 0..180
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/75 D"); }), ErrorKind::InvalidText);   // needs N or R
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/75 N D"); }), ErrorKind::InvalidText); // |75| < 90 is sinistral
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/0 N"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/90 S R"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/75SN"); }), ErrorKind::InvalidText);   // end must be a compass letter
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/0W N"); }), ErrorKind::InvalidText);   // horizontal, normal
-  EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/95W N"); }), ErrorKind::InvalidText);  // pitch > 90
+  EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/95W N"); }), ErrorKind::OutOfRange);  // pitch > 90
+  EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/195 N"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_fault_slip("290/64S/-75"); }), ErrorKind::InvalidText);   // signed rake needs RHR strike
   EXPECT_EQ(kind_of([] { parse_fault_slip("290/64S/75 N"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("0/64/75E N"); }), ErrorKind::InvalidText);    // E is 90 from both ends
@@ -155,4 +166,72 @@ TEST(ParseMisc, Compass) {
   EXPECT_EQ(compass_azimuth("sw", 2), 225);
   EXPECT_LT(compass_azimuth("x", 1), 0);
   EXPECT_LT(compass_azimuth("ns", 2), 0);
+}
+
+// The rake goes with the strike as written (found comparing text and binary
+// input): a vertical plane written with strike 270 is stored as 90/90 with the
+// rake negated, and a horizontal plane re-measures the rake from strike 0,
+// exactly as make_fault_slip (binary input, fault_slip(s, d, r)) does.
+TEST(ParseFault, CanonicalAsBinaryInput) {
+  EXPECT_FAULT("270/90/30", 90, 90, -30);
+  EXPECT_FAULT("90/0/30", 0, 0, -60);
+  EXPECT_FAULT("270/90/120 R", 90, 90, -120);
+  EXPECT_FAULT("270/90/60 R", 90, 90, -60);
+  const double cases[][3] = {{270, 90, 30}, {90, 0, 30}, {200, 90, -179}, {359, 0, 180}, {180, 90, 0},
+                             {270, 90, 60}, {360, 45, -90}};
+  for (const auto &c : cases) {
+    char txt[100];
+    std::snprintf(txt, sizeof txt, "%.17g/%.17g/%.17g", c[0], c[1], c[2]);
+    const FaultSlip t = parse_fault_slip(txt), b = make_fault_slip(c[0], c[1], c[2]);
+    EXPECT_EQ(t.strike, b.strike) << txt;
+    EXPECT_EQ(t.dip, b.dip) << txt;
+    EXPECT_EQ(t.rake, b.rake) << txt;
+  }
+}
+
+// Error messages quote whole characters and cut long text at a character
+// boundary (U+00A0 no-break space is C2 A0, the degree sign C2 B0).
+TEST(ParseErrors, QuoteWholeCharacters) {
+  try {
+    parse_plane("110/64\xC2\xA0SW");
+    FAIL();
+  } catch (const Error &e) {
+    EXPECT_NE(e.detail.find("'\xC2\xA0'"), std::string::npos) << e.detail;
+  }
+  try {
+    parse_line("\xE2\x82\xAC" "120/30");  // euro sign first
+    FAIL();
+  } catch (const Error &e) {
+    EXPECT_NE(e.detail.find("'\xE2\x82\xAC'"), std::string::npos) << e.detail;
+  }
+  std::string longtext = "110/";
+  for (int i = 0; i < 300; ++i) longtext += "\xC2\xB0";  // degree signs, 2 bytes each
+  try {
+    parse_plane(longtext.c_str());
+    FAIL();
+  } catch (const Error &e) {
+    const std::string m = e.what();
+    EXPECT_LT(m.size(), kEchoBytes + 60);
+    const size_t q = m.find('"');
+    // Between the quotes: "110/", then whole degree signs, then "...".
+    const std::string shown = m.substr(q + 1, m.rfind('"') - q - 1);
+    ASSERT_GE(shown.size(), 7u);
+    EXPECT_EQ(shown.substr(shown.size() - 3), "...");
+    EXPECT_EQ((shown.size() - 3 - 4) % 2, 0u) << shown;
+  }
+}
+
+TEST(EchoText, CutsAtCharacters) {
+  EXPECT_EQ(echo_text("abc", 3), "abc");
+  EXPECT_EQ(echo_text("abcd", 3), "abc...");
+  EXPECT_EQ(echo_text("a\xC2\xB0" "b", 2), "a...");         // the degree sign does not fit
+  EXPECT_EQ(echo_text("a\xC2\xB0" "b", 3), "a\xC2\xB0...");
+  EXPECT_EQ(echo_text("\xF0\x9F\x98\x80x", 3), "...");  // a 4-byte character
+  EXPECT_EQ(echo_text("\xFF\xFE\xFD", 2), "\xFF\xFE...");  // not UTF-8: byte by byte
+  const char s[] = "\xE2\x82";  // a cut sequence is not a character: one byte
+  EXPECT_EQ(char_length(s, s + 2), 1u);
+  const char t[] = "\xED\xA0\x80";  // a UTF-16 surrogate is not UTF-8
+  EXPECT_EQ(char_length(t, t + 3), 1u);
+  const char u[] = "\xE2\x82\xAC";
+  EXPECT_EQ(char_length(u, u + 3), 3u);
 }

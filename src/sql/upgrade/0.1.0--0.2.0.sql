@@ -48,3 +48,7 @@ COMMENT ON FUNCTION dilation_tendency(plane, stress_tensor) IS
   'dilation tendency (s1 - sn)/(s1 - s3), 0..1 (Ferrill et al. 1999). Pore-fluid pressure, which this function does not model, controls reactivation and induced seismicity. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
 COMMENT ON AGGREGATE right_dihedra(fault_slip, float8) IS
   'right dihedra (Angelier & Mechler 1977): percent of data for which each node of a lower-hemisphere grid of the given spacing (degrees, dividing 90, 0.5..45) is in the compressional dihedron; sigma1 near the maximum, sigma3 near the minimum; NULL for an empty group. Results are interpretive; where fault reactivation, induced seismicity, or slope or excavation stability matters, defer to site investigation, local codes and licensed professionals';
+
+-- issue 11: the binary form has 13 float8 fields, not 12 (the 0.1.0 comment miscounted)
+COMMENT ON FUNCTION stress_tensor_send(stress_tensor) IS
+  'binary output of stress_tensor (version byte; 13 float8: the 6 components, mean misfit, 3 confidence cones, the 2 ends of the Phi interval, friction; int8 data count; int4 flags); never -0';
