@@ -37,6 +37,22 @@ MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn) {
   return ctx;
 }
 
+bool agg_param(FunctionCallInfo fcinfo, int k, Datum &value, bool &isnull) {
+  const Aggref *ref = AggGetAggref(fcinfo);
+  if (ref == nullptr || k < 0 || k >= list_length(ref->args)) return false;
+  const TargetEntry *te = static_cast<const TargetEntry *>(list_nth(ref->args, k));
+  if (te == nullptr || !IsA(te->expr, Const)) return false;
+  const Const *c = reinterpret_cast<const Const *>(te->expr);
+  value = c->constvalue;
+  isnull = c->constisnull;
+  return true;
+}
+
+int agg_arg_count(FunctionCallInfo fcinfo) {
+  const Aggref *ref = AggGetAggref(fcinfo);
+  return ref == nullptr ? -1 : list_length(ref->args);
+}
+
 Datum float8_array(const double *v, int n) {
   Datum *elems = static_cast<Datum *>(palloc(sizeof(Datum) * n));
   for (int i = 0; i < n; ++i) elems[i] = Float8GetDatum(v[i]);

@@ -37,6 +37,19 @@ inline Datum text_result(const char *s) { return PointerGetDatum(cstring_to_text
 // support function (a user calling it directly from SQL).
 MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn);
 
+// Parameters of an aggregate over an empty group (DEVELOPERS.md, "Aggregates").
+// With no rows the transition function never runs, so the final function
+// checks the parameters itself: agg_param reads argument k (0-based, among the
+// aggregate's own arguments) of the aggregate call being finalised when the
+// planner has made it a constant (a literal, or a bound parameter of a custom
+// plan): returns true and sets value and isnull. Returns false when the
+// argument is not a constant (e.g. a column: over no rows it has no value) or
+// the call is not known.
+bool agg_param(FunctionCallInfo fcinfo, int k, Datum &value, bool &isnull);
+
+// Number of arguments of the aggregate call being finalised, or -1.
+int agg_arg_count(FunctionCallInfo fcinfo);
+
 // A float8[] of n values.
 Datum float8_array(const double *v, int n);
 

@@ -379,7 +379,17 @@ STRIAE_FUNCTION(density_deserialize) { return deserialize_with(fcinfo, kDensityO
 
 STRIAE_FUNCTION(density_final) {
   DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_final", StateKind::Density);
-  if (a == nullptr) PG_RETURN_NULL();
+  if (a == nullptr) {
+    // An empty group: the spacing is checked as the first row would check it.
+    Datum v;
+    bool isnull;
+    if (agg_param(fcinfo, 1, v, isnull)) {
+      if (isnull)
+        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("density_grid spacing must not be NULL")));
+      guarded([&] { grid_spacing(DatumGetFloat8(v)); });
+    }
+    PG_RETURN_NULL();
+  }
   density_compact(a);
   if (a->m == 0) PG_RETURN_NULL();  // only NULL rows
   const uint64_t n = guarded([&] { return bins_total(a->counts, a->m); });

@@ -514,7 +514,18 @@ STRIAE_FUNCTION(right_dihedra_deserialize) {
 // NULL for an empty group (or only NULL rows).
 STRIAE_FUNCTION(right_dihedra_final) {
   const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
-  if (a == nullptr || a->h.data_count == 0) PG_RETURN_NULL();
+  if (a == nullptr) {
+    // An empty group: the spacing is checked as the first row would check it.
+    Datum v;
+    bool isnull;
+    if (agg_param(fcinfo, 1, v, isnull)) {
+      if (isnull)
+        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("right_dihedra spacing must not be NULL")));
+      guarded([&] { grid_spacing(DatumGetFloat8(v)); });
+    }
+    PG_RETURN_NULL();
+  }
+  if (a->h.data_count == 0) PG_RETURN_NULL();
   guarded([&] { dihedra_validate(a->h, a->counts); });
   GridDatum *g = grid_alloc(GridKind::RightDihedra, a->h.spacing, a->h.data_count, a->h.node_count);
   guarded([&] { dihedra_finalise(a->h, a->counts, g->values); });
@@ -609,6 +620,36 @@ void keep_same(const KeepAgg *a, int32 resamples, int64 seed, double friction, c
                     errmsg("%s parameters must be the same for every row of a group", fn)));
 }
 
+// Parameters of an empty group (no transition call checked them): friction at
+// argument 1 when `friction` (NULL is an error when there are no bootstrap
+// arguments, the default search otherwise); resamples and seed after it when
+// `bootstrap` is 1. Only constant arguments can be checked (agg_param).
+void check_empty_group_params(FunctionCallInfo fcinfo, const char *name, bool friction, int bootstrap) {
+  Datum v;
+  bool isnull;
+  int k = 1;
+  if (friction) {
+    if (agg_param(fcinfo, k, v, isnull)) {
+      if (isnull && !bootstrap)
+        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("%s friction must not be NULL", name)));
+      if (!isnull) guarded([&] { check_friction(DatumGetFloat8(v)); });
+    }
+    ++k;
+  }
+  if (!bootstrap) return;
+  Datum r, s;
+  bool rnull, snull;
+  const bool rk = agg_param(fcinfo, k, r, rnull), sk = agg_param(fcinfo, k + 1, s, snull);
+  if ((rk && rnull) || (sk && snull))
+    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("%s resamples and seed must not be NULL", name)));
+  if (rk)
+    guarded([&] {
+      BootstrapOptions o;
+      o.resamples = DatumGetInt32(r);
+      check_bootstrap_options(o);
+    });
+}
+
 void keep_validate(const KeepAgg *a) {
   guarded([&] {
     check_keep_params(keep_params(a));
@@ -675,7 +716,9 @@ STRIAE_FUNCTION(focal_bootstrap_accum) {
   const int64 seed = PG_GETARG_INT64(4);
   if (a == nullptr) {
     guarded([&] {
-      if (mu != 0.0) check_friction(mu);
+      // NULL means the default search; a given friction is checked as in the
+      // plain form (0 or -0 is out of range, not "search").
+      if (!PG_ARGISNULL(2)) check_friction(mu);
       BootstrapOptions o;
       o.resamples = resamples;
       o.seed = static_cast<uint64_t>(seed);
@@ -753,7 +796,11 @@ STRIAE_FUNCTION(stress_keep_deserialize) { return deserialize_with(fcinfo, kKeep
 // Bootstrap inversion: NULL for an empty group, too few data or a degenerate set.
 STRIAE_FUNCTION(stress_bootstrap_final) {
   KeepAgg *a = keep_state(fcinfo, 0, "stress_bootstrap_final", StateKind::KeepBootstrap);
-  if (a == nullptr || a->count == 0) PG_RETURN_NULL();
+  if (a == nullptr) {
+    check_empty_group_params(fcinfo, "stress_inversion", false, 1);
+    PG_RETURN_NULL();
+  }
+  if (a->count == 0) PG_RETURN_NULL();
   keep_validate(a);
   StressTensor t{};
   const StressStatus st = guarded([&] {
@@ -772,7 +819,14 @@ STRIAE_FUNCTION(focal_stress_inversion_final) {
   StateKind kind;
   KeepAgg *a = state_arg<KeepAgg>(fcinfo, 0, "focal_stress_inversion_final",
                                   {StateKind::KeepFocal, StateKind::KeepFocalBootstrap}, kind);
-  if (a == nullptr || a->count == 0) PG_RETURN_NULL();
+  if (a == nullptr) {
+    // focal_stress_inversion(f), (f, friction) or (f, friction, resamples, seed).
+    const int nargs = agg_arg_count(fcinfo);
+    if (nargs == 2) check_empty_group_params(fcinfo, "focal_stress_inversion", true, 0);
+    if (nargs == 4) check_empty_group_params(fcinfo, "focal_stress_inversion", true, 1);
+    PG_RETURN_NULL();
+  }
+  if (a->count == 0) PG_RETURN_NULL();
   keep_validate(a);
   uint8_t *picked = static_cast<uint8_t *>(palloc(static_cast<Size>(a->count)));
   FocalInversion r{};
