@@ -386,7 +386,10 @@ STRIAE_FUNCTION(stress_inversion_final) {
 //
 // State: DihedraHeader followed by node_count int64 counts, one palloc chunk in
 // the aggregate context. The node table depends only on the spacing and is kept
-// per backend in a static (one spacing at a time; recomputed when it changes).
+// per backend, for up to kNodeCacheSpacings spacings and kNodeCacheBytes in all,
+// the least recently used dropped first: two right_dihedra of different spacings
+// in one query take turns row by row, and a cache of one spacing rebuilt the
+// table on every row (30 to 110 times slower than running them apart).
 
 namespace {
 
@@ -409,18 +412,65 @@ Size dihedra_size(const DihedraAgg *a) {
   return offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(a->h.node_count);
 }
 
-// Node table for a spacing, cached per backend.
+constexpr int kNodeCacheSpacings = 8;
+constexpr size_t kNodeCacheBytes = size_t(8) << 20;  // 4 tables of the finest grid (2 MB each)
+
+struct NodeTable {
+  double spacing = 0;
+  uint64_t last_use = 0;  // 0: empty slot
+  std::vector<double> table;
+};
+
+// Node table for a (checked) spacing, from the per-backend cache.
 const double *dihedra_nodes(double spacing) {
-  static double cached_spacing = -1;
-  static std::vector<double> table;
-  if (spacing != cached_spacing) {
-    guarded([&] {
-      cached_spacing = -1;
-      table = dihedra_node_table(spacing);
-      cached_spacing = spacing;
-    });
+  static NodeTable cache[kNodeCacheSpacings];
+  static int last = 0;  // the slot the previous row used: the common case
+  static uint64_t clock = 0;
+  ++clock;
+  NodeTable &hit = cache[last];
+  if (hit.last_use != 0 && hit.spacing == spacing) {
+    hit.last_use = clock;
+    return hit.table.data();
   }
-  return table.data();
+  for (int i = 0; i < kNodeCacheSpacings; ++i)
+    if (cache[i].last_use != 0 && cache[i].spacing == spacing) {
+      cache[i].last_use = clock;
+      last = i;
+      return cache[i].table.data();
+    }
+  guarded([&] {
+    std::vector<double> t = dihedra_node_table(spacing);
+    // Drop least recently used tables until the new one fits both bounds.
+    auto bytes = [&] {
+      size_t b = t.size() * sizeof(double);
+      for (const NodeTable &e : cache)
+        if (e.last_use != 0) b += e.table.size() * sizeof(double);
+      return b;
+    };
+    auto lru = [&]() -> NodeTable * {
+      NodeTable *v = nullptr;
+      for (NodeTable &e : cache)
+        if (e.last_use != 0 && (v == nullptr || e.last_use < v->last_use)) v = &e;
+      return v;
+    };
+    NodeTable *slot = nullptr;
+    for (NodeTable &e : cache)
+      if (e.last_use == 0) slot = &e;
+    if (slot == nullptr) slot = lru();
+    slot->last_use = 0;
+    std::vector<double>().swap(slot->table);
+    while (bytes() > kNodeCacheBytes) {
+      NodeTable *v = lru();
+      if (v == nullptr) break;
+      v->last_use = 0;
+      std::vector<double>().swap(v->table);
+    }
+    slot->table = std::move(t);
+    slot->spacing = spacing;
+    slot->last_use = clock;
+    last = static_cast<int>(slot - cache);
+  });
+  return cache[last].table.data();
 }
 
 DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k, const char *fn) {
