@@ -71,14 +71,20 @@ void check_input(const SlipDatum *data, size_t count, const BootstrapOptions &op
     throw Error(ErrorKind::InvalidParameter, "too many data for a bootstrap (at most 1000000)",
                 "The bootstrap keeps the data of a group in memory.",
                 "Split the group, or use the inversion without bootstrap.");
-  for (size_t i = 0; i < count; ++i) check_slip_datum(data[i].n, data[i].u);
+  for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
+    check_slip_datum(data[i].n, data[i].u);
+  }
 }
 
 // Draw one resample's multiplicities: count draws with replacement.
 void draw(Rng &rng, uint32_t *mult, size_t count) {
   std::fill(mult, mult + count, 0u);
   const uint32_t n = static_cast<uint32_t>(count);
-  for (size_t k = 0; k < count; ++k) ++mult[rng.below(n)];
+  for (size_t k = 0; k < count; ++k) {
+    poll_every(k);
+    ++mult[rng.below(n)];
+  }
 }
 
 // Angle between two unit-norm tensors, degrees.
@@ -158,6 +164,7 @@ StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const Bootstr
   std::vector<double> table(count * 20);
   double sums[20] = {0};
   for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
     double *c = &table[i * 20];
     stress_contribution(data[i].n, data[i].u, c);
     for (int k = 0; k < 20; ++k) sums[k] += c[k];
@@ -171,13 +178,19 @@ StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const Bootstr
   std::vector<uint32_t> mult(count);
   std::vector<Resample> rs(static_cast<size_t>(opt.resamples));
   for (auto &r : rs) {
+    poll_interrupts();  // each resample: a few ms at the largest groups (and polls inside)
     draw(rng, mult.data(), count);
     // Eigen's explicit SIMD on a stack vector (the build is -O2, where GCC does not
     // vectorise the plain loop); no branch on a zero multiplicity, which is cheaper.
+    // Chunks of 2^16 data between polls keep the inner loop free of branches.
     Eigen::Matrix<double, 20, 1> acc = Eigen::Matrix<double, 20, 1>::Zero();
     const double *c = table.data();
-    for (size_t i = 0; i < count; ++i, c += 20)
-      acc.noalias() += static_cast<double>(mult[i]) * Eigen::Map<const Eigen::Matrix<double, 20, 1>>(c);
+    for (size_t b = 0; b < count; b += kPollMask + 1) {
+      if (b) poll_interrupts();
+      const size_t e = count - b > kPollMask + 1 ? b + kPollMask + 1 : count;
+      for (size_t i = b; i < e; ++i, c += 20)
+        acc.noalias() += static_cast<double>(mult[i]) * Eigen::Map<const Eigen::Matrix<double, 20, 1>>(c);
+    }
     StressTensor t;
     const StressStatus rst = stress_solve(acc.data(), static_cast<double>(count), n, t);
     r = record(rst, t, out);

@@ -31,9 +31,9 @@ struct Layout {
   int total = 0;
 };
 
-// Build the layout for a spacing (checked by check_grid_spacing).
+// Build the layout for a spacing (as grid_spacing accepts and rounds it).
 Layout make_layout(double s) {
-  check_grid_spacing(s);
+  s = grid_spacing(s);
   Layout L;
   L.s = s;
   L.J = static_cast<int>(std::lround(90.0 / s));
@@ -144,6 +144,7 @@ void heap_sort(uint32_t *ids, uint64_t *c, size_t m) {
   if (m < 2) return;
   for (size_t start = m / 2; start-- > 0;) sift_down(ids, c, start, m);
   for (size_t end = m - 1; end > 0; --end) {
+    poll_every(end);
     swap_entry(ids, c, 0, end);
     sift_down(ids, c, 0, end);
   }
@@ -170,8 +171,10 @@ OutGrid make_out_grid(double spacing) {
   OutGrid G;
   G.L = make_layout(spacing);
   G.g.reserve(G.L.total);
-  for (int i = 0; i <= G.L.J; ++i)
+  for (int i = 0; i <= G.L.J; ++i) {
+    poll_interrupts();  // once a ring
     for (int k = 0; k < G.L.cnt[i]; ++k) G.g.push_back(line_vector(node_line(G.L, i, k)));
+  }
   return G;
 }
 
@@ -417,6 +420,7 @@ void density_values(const uint32_t *ids, const uint64_t *counts, size_t m, doubl
   const Accumulator acc{G, density_kernel_f(n), out_values};
   const Layout &B = bin_layout();
   for (size_t b = 0; b < m; ++b) {
+    poll_interrupts();  // a bin's kernel can reach every node of the output grid
     const int i = bin_ring(B, ids[b]);
     const Line l = node_line(B, i, static_cast<int>(ids[b]) - B.off[i]);
     acc.add(line_vector(l), l.plunge, l.trend, static_cast<double>(counts[b]));
@@ -432,6 +436,7 @@ void density_values_axes(const Vec3 *axes, size_t n, double spacing, double *out
   std::fill(out_values, out_values + G.L.total, 0.0);
   const Accumulator acc{G, density_kernel_f(n), out_values};
   for (size_t b = 0; b < n; ++b) {
+    poll_interrupts();
     const Vec3 u = lower_unit(axes[b]);
     double p, t;
     plunge_trend(u, p, t);

@@ -186,6 +186,7 @@ GridHeader parse_grid_header(const char *text) {
 void parse_grid_values(const char *text, size_t at, double *out, size_t count) {
   Cursor c{text, at};
   for (size_t k = 0; k < count; ++k) {
+    if ((k & 4095) == 4095) poll_interrupts();
     if (k) {
       c.blanks();
       if (text[c.i] == ']')

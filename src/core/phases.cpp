@@ -166,7 +166,10 @@ StressStatus separate_phases(const SlipDatum *data, size_t count, const PhaseOpt
   if (count > kMaxBootstrapData)
     throw Error(ErrorKind::InvalidParameter, "too many data for a phase separation (at most 1000000)",
                 "The separation keeps the data of a group in memory.", "Split the group.");
-  for (size_t i = 0; i < count; ++i) check_slip_datum(data[i].n, data[i].u);
+  for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
+    check_slip_datum(data[i].n, data[i].u);
+  }
   out.clear();
   if (count == 0) return StressStatus::Empty;
   const int k = o.phases;
@@ -176,6 +179,7 @@ StressStatus separate_phases(const SlipDatum *data, size_t count, const PhaseOpt
   Division best;
   bool have = false;
   for (int s = 0; s < o.starts; ++s) {
+    poll_interrupts();
     Division d = run(data, count, k, rng);
     if (!d.ok) continue;
     if (!have || d.total < best.total) {
@@ -196,7 +200,10 @@ StressStatus separate_phases(const SlipDatum *data, size_t count, const PhaseOpt
   std::vector<uint8_t> rank(k);
   for (int r = 0; r < k; ++r) rank[order[r]] = static_cast<uint8_t>(r);
   std::vector<std::vector<SlipDatum>> members(k);
-  for (size_t i = 0; i < count; ++i) members[rank[best.phase[i]]].push_back(data[i]);
+  for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
+    members[rank[best.phase[i]]].push_back(data[i]);
+  }
   for (int r = 0; r < k; ++r) {
     StressTensor t = best.tensor[order[r]];
     if (auto m = mean_misfit(members[r].data(), members[r].size(), t)) {

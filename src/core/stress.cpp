@@ -580,6 +580,7 @@ std::optional<double> mean_misfit(const SlipDatum *data, size_t count, const Str
   double sum = 0.0;
   size_t used = 0;
   for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
     const Vec3 n(data[i].n[0], data[i].n[1], data[i].n[2]);
     const Vec3 u(data[i].u[0], data[i].u[1], data[i].u[2]);
     const Vec3 tr = sig * n;
@@ -620,6 +621,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
   auto w = [weight](size_t i) -> double { return weight ? static_cast<double>(weight[i]) : 1.0; };
   double wsum = 0.0;
   for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
     check_slip_datum(data[i].n, data[i].u);
     wsum += w(i);
   }
@@ -629,6 +631,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
   double sums[20] = {0};
   double c[20];
   for (size_t i = 0; i < count; ++i) {
+    poll_every(i);
     const double wi = w(i);
     if (wi == 0) continue;
     stress_contribution(data[i].n, data[i].u, c);
@@ -643,6 +646,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
   auto solve_picks = [&](const uint8_t *p, StressTensor &t) {
     std::fill(sums, sums + 20, 0.0);
     for (size_t i = 0; i < count; ++i) {
+      poll_every(i);
       const double wi = w(i);
       if (wi == 0) continue;
       if (p[i]) stress_contribution(data[i].u, data[i].n, c);
@@ -658,6 +662,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
     double total = 0.0;
     changed = from == nullptr;
     for (size_t i = 0; i < count; ++i) {
+      poll_every(i);
       const double wi = w(i);
       if (wi == 0) continue;
       const double in = instability_at(f, data[i].n), iu = instability_at(f, data[i].u);
@@ -682,6 +687,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
   std::vector<uint64_t> seen;  // hashes of the pick sets used so far, in order
   bool settled = false;
   for (int iter = 0;; ++iter) {
+    poll_interrupts();
     bool changed;
     evaluate(out, iter == 0 ? nullptr : picked, next.data(), changed, score);
     if (!changed) { settled = true; break; }
@@ -730,6 +736,7 @@ StressStatus invert_focal(const SlipDatum *data, size_t count, const FrictionRan
   int best_j = -1;
   StressStatus last = StressStatus::Ok;
   for (int j = 0; j < steps; ++j) {
+    poll_interrupts();
     // Rounded to 1e-12 so a search over 0.2, 0.3, ... reports 0.3, not 0.30000000000000004.
     const double mu = std::min(fr.mu_max, std::round((fr.mu_min + j * fr.step) * 1e12) / 1e12);
     StressTensor t;
@@ -777,7 +784,11 @@ SlipDatum slip_datum(const FaultSlip &f) {
 }
 
 void sort_slip_data(SlipDatum *data, size_t count) {
-  std::sort(data, data + count, [](const SlipDatum &x, const SlipDatum &y) {
+  // Polled from the comparison: a million data take ~10^8 ns to sort. Throwing
+  // out of std::sort leaves the data permuted, never invalid (plain structs).
+  size_t compared = 0;
+  std::sort(data, data + count, [&compared](const SlipDatum &x, const SlipDatum &y) {
+    poll_every(compared++);
     const auto kx = std::tie(x.n[0], x.n[1], x.n[2], x.u[0], x.u[1], x.u[2]);
     const auto ky = std::tie(y.n[0], y.n[1], y.n[2], y.u[0], y.u[1], y.u[2]);
     return kx < ky;
