@@ -26,24 +26,28 @@ Datum composite(FunctionCallInfo fcinfo, Datum *values, bool *nulls) {
   return HeapTupleGetDatum(heap_form_tuple(desc, values, nulls));
 }
 
-// Elements of a stress_tensor[] argument, validated; NULL elements are an error.
-std::vector<StressTensor> tensor_array(FunctionCallInfo fcinfo, int k) {
+// Elements of a stress_tensor[] argument, validated, in a palloc'd array (no
+// C++ container in a frame that can raise); NULL elements are an error.
+struct Tensors {
+  const StressTensor *t;
+  size_t n;
+};
+Tensors tensor_array(FunctionCallInfo fcinfo, int k) {
   ArrayType *a = PG_GETARG_ARRAYTYPE_P(k);
   Datum *elems;
   bool *nulls;
   int n;
   deconstruct_array(a, ARR_ELEMTYPE(a), sizeof(StressTensor), false, TYPALIGN_DOUBLE, &elems, &nulls, &n);
-  std::vector<StressTensor> out;
-  out.reserve(n);
+  StressTensor *out = static_cast<StressTensor *>(palloc(sizeof(StressTensor) * Max(n, 1)));
   for (int i = 0; i < n; ++i) {
     if (nulls[i])
       ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("stress_phase: the array of tensors contains a NULL")));
-    out.push_back(*reinterpret_cast<const StressTensor *>(DatumGetPointer(elems[i])));
+    out[i] = *reinterpret_cast<const StressTensor *>(DatumGetPointer(elems[i]));
   }
   guarded([&] {
-    for (const auto &t : out) check_stress_tensor(t);
+    for (int i = 0; i < n; ++i) check_stress_tensor(out[i]);
   });
-  return out;
+  return Tensors{out, static_cast<size_t>(n)};
 }
 
 // ---- stress_phases: state keeping the data ----------------------------------------
@@ -338,13 +342,13 @@ STRIAE_FUNCTION(stress_phases_final) {
 // 1-based index of the best-fitting tensor; NULL for an empty array.
 STRIAE_FUNCTION(stress_phase) {
   const FaultSlip f = *arg<FaultSlip>(fcinfo, 0);
-  const std::vector<StressTensor> ts = tensor_array(fcinfo, 1);
-  if (ts.empty()) PG_RETURN_NULL();
+  const Tensors ts = tensor_array(fcinfo, 1);
+  if (ts.n == 0) PG_RETURN_NULL();
   const int j = guarded([&] {
     Vec3 n, u;
     fault_vectors(f, n, u);
     std::optional<double> m;
-    return best_phase(n, u, ts.data(), ts.size(), m);
+    return best_phase(n, u, ts.t, ts.n, m);
   });
   PG_RETURN_INT32(j + 1);
 }

@@ -50,19 +50,25 @@ Bytes figure_arg(FunctionCallInfo fcinfo, int k) {
   return Bytes{VARDATA_ANY(v), VARSIZE_ANY_EXHDR(v)};
 }
 
-// Text argument as UTF-8 (labels and titles are kept and drawn in UTF-8).
-std::string utf8_arg(FunctionCallInfo fcinfo, int k) {
+// Text argument as UTF-8 (labels and titles are kept and drawn in UTF-8), in
+// palloc'd memory: an entry function holds no C++ object of its own while a
+// PostgreSQL error can still be raised (one would leak its heap memory on
+// every error; tests/external/check_error_memory.py). The std::string is
+// built inside the guarded lambda.
+struct Utf8 {
+  const char *p;
+  size_t n;
+  std::string str() const { return std::string(p, n); }
+};
+Utf8 utf8_arg(FunctionCallInfo fcinfo, int k) {
   text *t = PG_GETARG_TEXT_PP(k);
   const char *s = VARDATA_ANY(t);
   const int len = VARSIZE_ANY_EXHDR(t);
   char *u = pg_server_to_any(s, len, PG_UTF8);
-  return std::string(u, u == s ? len : std::strlen(u));
+  return Utf8{u, u == s ? static_cast<size_t>(len) : std::strlen(u)};
 }
 
-std::string utf8_cstring(const char *s) {
-  char *u = pg_server_to_any(s, std::strlen(s), PG_UTF8);
-  return std::string(u);
-}
+const char *utf8_cstring(const char *s) { return pg_server_to_any(s, std::strlen(s), PG_UTF8); }
 
 Datum one_layer(LayerKind kind, std::vector<double> params, std::vector<double> data) {
   std::string bytes = guarded([&] {
@@ -79,17 +85,20 @@ Datum one_layer(LayerKind kind, std::vector<double> params, std::vector<double> 
 // ---- type I/O -----------------------------------------------------------------------------
 
 STRIAE_FUNCTION(net_figure_in) {
-  const std::string text = utf8_cstring(PG_GETARG_CSTRING(0));
-  std::string bytes = guarded([&] { return encode_figure(figure_from_text(text.c_str())); });
+  const char *text = utf8_cstring(PG_GETARG_CSTRING(0));
+  std::string bytes = guarded([&] { return encode_figure(figure_from_text(text)); });
   return varlena_of(std::move(bytes));
 }
 
 STRIAE_FUNCTION(net_figure_out) {
   const Bytes b = figure_arg(fcinfo, 0);
   std::string text = guarded([&] { return figure_to_text(decode_figure(b.data, b.size)); });
-  char *server = pg_any_to_server(text.c_str(), static_cast<int>(text.size()), PG_UTF8);
-  if (server == text.c_str()) server = pstrdup(server);
-  PG_RETURN_CSTRING(server);
+  // The conversion may raise (a label with a character the server encoding
+  // lacks): release the C++ string first.
+  char *utf8 = pnstrdup(text.data(), text.size());
+  const int len = static_cast<int>(text.size());
+  std::string().swap(text);
+  PG_RETURN_CSTRING(pg_any_to_server(utf8, len, PG_UTF8));
 }
 
 // Binary form: the stored bytes (portable: big-endian, versioned), checked on receipt.
@@ -141,12 +150,13 @@ STRIAE_FUNCTION(net_contours) {
   if (PG_ARGISNULL(0)) PG_RETURN_NULL();
   const GridDatum *g = grid_arg(fcinfo, 0);
   const bool filled = PG_ARGISNULL(2) ? true : PG_GETARG_BOOL(2);
-  std::vector<double> params = {static_cast<double>(g->kind), g->spacing, static_cast<double>(g->n), filled ? 1.0 : 0.0};
+  // The levels are checked before any C++ object exists in this frame: an
+  // ereport here must not skip a destructor (a vector leaked on every error).
+  Datum *elems = nullptr;
+  bool *nulls = nullptr;
+  int n = 0;
   if (!PG_ARGISNULL(1)) {
     ArrayType *a = PG_GETARG_ARRAYTYPE_P(1);
-    Datum *elems;
-    bool *nulls;
-    int n;
     deconstruct_array(a, FLOAT8OID, sizeof(float8), FLOAT8PASSBYVAL, TYPALIGN_DOUBLE, &elems, &nulls, &n);
     if (n == 0 || n > static_cast<int>(kMaxContourLevels))
       ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE), errmsg("contour levels: give 1 to %d levels, or NULL for automatic levels",
@@ -155,16 +165,18 @@ STRIAE_FUNCTION(net_contours) {
       if (nulls[i]) ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("contour levels must not contain NULL")));
       const double v = DatumGetFloat8(elems[i]);
       if (!std::isfinite(v)) ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE), errmsg("contour levels must be finite")));
-      params.push_back(v);
     }
   }
+  std::vector<double> params = {static_cast<double>(g->kind), g->spacing, static_cast<double>(g->n), filled ? 1.0 : 0.0};
+  for (int i = 0; i < n; ++i) params.push_back(DatumGetFloat8(elems[i]));
   return one_layer(LayerKind::Contours, std::move(params), std::vector<double>(g->values, g->values + g->count));
 }
 
 STRIAE_FUNCTION(net_label) {
   const Bytes b = figure_arg(fcinfo, 0);
-  const std::string label = utf8_arg(fcinfo, 1);
+  const Utf8 label_arg = utf8_arg(fcinfo, 1);
   std::string bytes = guarded([&] {
+    const std::string label = label_arg.str();
     check_label(label);
     Figure f = decode_figure(b.data, b.size);
     for (Layer &l : f.layers) l.label = label;
@@ -182,8 +194,8 @@ STRIAE_FUNCTION(net_figure_concat) {
 // net_xy(lineation, projection text) -> point in the unit disc (x east, y north).
 STRIAE_FUNCTION(net_xy) {
   const Line l = *arg<Line>(fcinfo, 0);
-  const std::string name = utf8_arg(fcinfo, 1);
-  const XY p = guarded([&] { return project(line_vector(l), parse_projection(name)); });
+  const Utf8 name = utf8_arg(fcinfo, 1);
+  const XY p = guarded([&] { return project(line_vector(l), parse_projection(name.str())); });
   Point *out = static_cast<Point *>(palloc(sizeof(Point)));
   out->x = p.x;
   out->y = p.y;
@@ -193,16 +205,17 @@ STRIAE_FUNCTION(net_xy) {
 // net_svg(figure, projection, size, title, graticule, legend) -> text
 STRIAE_FUNCTION(net_svg) {
   const Bytes b = figure_arg(fcinfo, 0);
-  const std::string proj = utf8_arg(fcinfo, 1);
+  const Utf8 proj = utf8_arg(fcinfo, 1);
   const int32 size = PG_GETARG_INT32(2);
-  const std::string title = utf8_arg(fcinfo, 3);
-  RenderOptions o;
-  o.size = size;
-  o.title = title;
-  o.graticule = PG_GETARG_BOOL(4);
-  o.legend = PG_GETARG_BOOL(5);
+  const Utf8 title = utf8_arg(fcinfo, 3);
+  const bool graticule = PG_GETARG_BOOL(4), legend = PG_GETARG_BOOL(5);
   std::string svg = guarded([&] {
-    o.projection = parse_projection(proj);
+    RenderOptions o;
+    o.size = size;
+    o.title = title.str();
+    o.graticule = graticule;
+    o.legend = legend;
+    o.projection = parse_projection(proj.str());
     return render_svg(decode_figure(b.data, b.size), o);
   });
   return varlena_of(std::move(svg));  // plain ASCII: valid text in every server encoding
