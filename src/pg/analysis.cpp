@@ -296,21 +296,7 @@ STRIAE_FUNCTION(stress_phases_deserialize) {
 STRIAE_FUNCTION(stress_phases_final) {
   PhaseAgg *a = phase_state(fcinfo, 0, "stress_phases_final");
   if (a == nullptr) {
-    // An empty group: phases, seed (and starts) checked as the first row would.
-    const int nargs = agg_arg_count(fcinfo);
-    Datum v[3];
-    bool isnull[3], known[3] = {false, false, false};
-    for (int i = 0; i < 3 && i + 1 < nargs; ++i) known[i] = agg_param(fcinfo, i + 1, v[i], isnull[i]);
-    for (int i = 0; i < 3; ++i)
-      if (known[i] && isnull[i])
-        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED),
-                        errmsg("stress_phases phases, seed and starts must not be NULL")));
-    guarded([&] {
-      PhaseOptions o;
-      if (known[0]) o.phases = DatumGetInt32(v[0]);
-      if (known[2]) o.starts = DatumGetInt32(v[2]);
-      check_phase_options(o);
-    });
+    check_empty_group_params(fcinfo);  // phases, seed and starts, as the first row would check them
     PG_RETURN_NULL();
   }
   if (a->count == 0) PG_RETURN_NULL();
@@ -461,14 +447,7 @@ STRIAE_FUNCTION(misfit_summary_deserialize) {
 STRIAE_FUNCTION(misfit_summary_final) {
   MisfitAgg *a = misfit_state(fcinfo, 0, "misfit_summary_final");
   if (a == nullptr) {
-    // An empty group: the threshold is checked as the first row would check it.
-    Datum v;
-    bool isnull;
-    if (agg_param(fcinfo, 2, v, isnull)) {
-      if (isnull)
-        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("misfit_summary threshold must not be NULL")));
-      guarded([&] { check_misfit_threshold(DatumGetFloat8(v)); });
-    }
+    check_empty_group_params(fcinfo);  // the threshold, as the first row would check it
     PG_RETURN_NULL();
   }
   if (a->count == 0 && a->undefined == 0) PG_RETURN_NULL();

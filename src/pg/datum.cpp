@@ -48,11 +48,6 @@ bool agg_param(FunctionCallInfo fcinfo, int k, Datum &value, bool &isnull) {
   return true;
 }
 
-int agg_arg_count(FunctionCallInfo fcinfo) {
-  const Aggref *ref = AggGetAggref(fcinfo);
-  return ref == nullptr ? -1 : list_length(ref->args);
-}
-
 Datum float8_array(const double *v, int n) {
   Datum *elems = static_cast<Datum *>(palloc(sizeof(Datum) * n));
   for (int i = 0; i < n; ++i) elems[i] = Float8GetDatum(v[i]);

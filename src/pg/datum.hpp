@@ -47,8 +47,10 @@ MemoryContext agg_context(FunctionCallInfo fcinfo, const char *fn);
 // the call is not known.
 bool agg_param(FunctionCallInfo fcinfo, int k, Datum &value, bool &isnull);
 
-// Number of arguments of the aggregate call being finalised, or -1.
-int agg_arg_count(FunctionCallInfo fcinfo);
+// For a final function over an empty group (NULL state): checks the constant
+// parameters of the aggregate being finalised, one-phase or *_partial, with
+// the errors its transition function gives on a first row (src/pg/params.cpp).
+void check_empty_group_params(FunctionCallInfo fcinfo);
 
 // A float8[] of n values.
 Datum float8_array(const double *v, int n);

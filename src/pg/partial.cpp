@@ -150,7 +150,10 @@ Datum partial_final(FunctionCallInfo fcinfo, PartialInput in, const char *fn) {
                         k);
   else
     s = state_arg<void>(fcinfo, 0, fn, {StateKind::Fisher, StateKind::Tensor, StateKind::Density}, k);
-  if (s == nullptr) PG_RETURN_NULL();
+  if (s == nullptr) {
+    check_empty_group_params(fcinfo);  // as the one-phase final functions do
+    PG_RETURN_NULL();
+  }
   return partial_value(k, in, ops_of(k), s, fn);
 }
 

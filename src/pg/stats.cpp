@@ -381,14 +381,7 @@ STRIAE_FUNCTION(density_deserialize) { return deserialize_with(fcinfo, kDensityO
 STRIAE_FUNCTION(density_final) {
   DensityAgg *a = state_arg<DensityAgg>(fcinfo, 0, "density_final", StateKind::Density);
   if (a == nullptr) {
-    // An empty group: the spacing is checked as the first row would check it.
-    Datum v;
-    bool isnull;
-    if (agg_param(fcinfo, 1, v, isnull)) {
-      if (isnull)
-        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("density_grid spacing must not be NULL")));
-      guarded([&] { grid_spacing(DatumGetFloat8(v)); });
-    }
+    check_empty_group_params(fcinfo);  // the spacing, as the first row would check it
     PG_RETURN_NULL();
   }
   density_compact(a);

@@ -565,14 +565,7 @@ STRIAE_FUNCTION(right_dihedra_deserialize) {
 STRIAE_FUNCTION(right_dihedra_final) {
   const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
   if (a == nullptr) {
-    // An empty group: the spacing is checked as the first row would check it.
-    Datum v;
-    bool isnull;
-    if (agg_param(fcinfo, 1, v, isnull)) {
-      if (isnull)
-        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("right_dihedra spacing must not be NULL")));
-      guarded([&] { grid_spacing(DatumGetFloat8(v)); });
-    }
+    check_empty_group_params(fcinfo);  // the spacing, as the first row would check it
     PG_RETURN_NULL();
   }
   if (a->h.data_count == 0) PG_RETURN_NULL();
@@ -668,36 +661,6 @@ void keep_same(const KeepAgg *a, int32 resamples, int64 seed, double friction, c
   if (a->resamples != resamples || a->seed != seed || a->friction != friction)
     ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
                     errmsg("%s parameters must be the same for every row of a group", fn)));
-}
-
-// Parameters of an empty group (no transition call checked them): friction at
-// argument 1 when `friction` (NULL is an error when there are no bootstrap
-// arguments, the default search otherwise); resamples and seed after it when
-// `bootstrap` is 1. Only constant arguments can be checked (agg_param).
-void check_empty_group_params(FunctionCallInfo fcinfo, const char *name, bool friction, int bootstrap) {
-  Datum v;
-  bool isnull;
-  int k = 1;
-  if (friction) {
-    if (agg_param(fcinfo, k, v, isnull)) {
-      if (isnull && !bootstrap)
-        ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("%s friction must not be NULL", name)));
-      if (!isnull) guarded([&] { check_friction(DatumGetFloat8(v)); });
-    }
-    ++k;
-  }
-  if (!bootstrap) return;
-  Datum r, s;
-  bool rnull, snull;
-  const bool rk = agg_param(fcinfo, k, r, rnull), sk = agg_param(fcinfo, k + 1, s, snull);
-  if ((rk && rnull) || (sk && snull))
-    ereport(ERROR, (errcode(ERRCODE_NULL_VALUE_NOT_ALLOWED), errmsg("%s resamples and seed must not be NULL", name)));
-  if (rk)
-    guarded([&] {
-      BootstrapOptions o;
-      o.resamples = DatumGetInt32(r);
-      check_bootstrap_options(o);
-    });
 }
 
 void keep_validate(const KeepAgg *a) {
@@ -847,7 +810,7 @@ STRIAE_FUNCTION(stress_keep_deserialize) { return deserialize_with(fcinfo, kKeep
 STRIAE_FUNCTION(stress_bootstrap_final) {
   KeepAgg *a = keep_state(fcinfo, 0, "stress_bootstrap_final", StateKind::KeepBootstrap);
   if (a == nullptr) {
-    check_empty_group_params(fcinfo, "stress_inversion", false, 1);
+    check_empty_group_params(fcinfo);  // resamples and seed
     PG_RETURN_NULL();
   }
   if (a->count == 0) PG_RETURN_NULL();
@@ -870,10 +833,7 @@ STRIAE_FUNCTION(focal_stress_inversion_final) {
   KeepAgg *a = state_arg<KeepAgg>(fcinfo, 0, "focal_stress_inversion_final",
                                   {StateKind::KeepFocal, StateKind::KeepFocalBootstrap}, kind);
   if (a == nullptr) {
-    // focal_stress_inversion(f), (f, friction) or (f, friction, resamples, seed).
-    const int nargs = agg_arg_count(fcinfo);
-    if (nargs == 2) check_empty_group_params(fcinfo, "focal_stress_inversion", true, 0);
-    if (nargs == 4) check_empty_group_params(fcinfo, "focal_stress_inversion", true, 1);
+    check_empty_group_params(fcinfo);  // friction, resamples and seed, when given
     PG_RETURN_NULL();
   }
   if (a->count == 0) PG_RETURN_NULL();
