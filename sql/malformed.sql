@@ -277,6 +277,34 @@ INSERT INTO mf_cases (q) VALUES
   ($$SELECT moment_tensor_sum(f, 'NaN') FROM mf_f$$),
   ($$SELECT moment_tensor_sum(f, 'Infinity') FROM mf_f$$);
 
+-- ---- the two-phase forms: the same parameters, the same checks; partial_state input ------
+INSERT INTO mf_cases (q) VALUES
+  ($$SELECT density_grid_partial(l, 7) FROM mf_l$$),
+  ($$SELECT density_grid_partial(l, 7) FROM mf_l WHERE false$$),
+  ($$SELECT right_dihedra_partial(f, NULL) FROM mf_f WHERE false$$),
+  ($$SELECT stress_inversion_partial(f, 0, 1) FROM mf_f WHERE false$$),
+  ($$SELECT focal_stress_inversion_partial(f, 0) FROM mf_f WHERE false$$),
+  ($$SELECT focal_stress_inversion_partial(f, 0, 10, 1) FROM mf_f$$),
+  ($$SELECT focal_stress_inversion_partial(f, 0, 10, 1) FROM mf_f WHERE false$$),
+  ($$SELECT stress_phases_partial(f, 2, 1, 0) FROM mf_f WHERE false$$),
+  ($$SELECT misfit_summary_partial(f, stress_tensor('10/5', '100/20', 0.4), 181) FROM mf_f WHERE false$$),
+  ($$SELECT ''::partial_state$$),
+  ($$SELECT 'bogus'::partial_state$$),
+  ($$SELECT 'stress_inversion/fault_slip:'::partial_state$$),
+  ($$SELECT 'stress_inversion/fault_slip:U1NUMQ='::partial_state$$),
+  ($$SELECT 'stress_inversion/plane:U1NUMQ=='::partial_state$$),
+  ($$SELECT 'heat/fault_slip:U1NUMQ=='::partial_state$$);
+
+-- ---- map symbols ---------------------------------------------------------------------------
+INSERT INTO mf_cases (q) VALUES
+  ($$SELECT geodesic_destination(0, 91, 0, 1000)$$),
+  ($$SELECT geodesic_destination(0, 0, 'NaN', 1000)$$),
+  ($$SELECT geodesic_destination(0, 0, 0, -1)$$),
+  ($$SELECT shmax_bar_wkt(10, 0, 0, 0)$$),
+  ($$SELECT focal_quadrants_wkt('110/64/30', 0, 0, 0)$$),
+  ($$SELECT focal_disc_wkt(0, 0, 1000, 'Infinity')$$),
+  ($$SELECT stress_map_row(stress_tensor('10/5', '100/20', 0.4), 181, 0, 1000)$$);
+
 SELECT id, pg_temp.st(q) AS result FROM mf_cases ORDER BY id;
 
 -- ---- multi-byte characters: quoted whole, in the message and in the detail ----------------
@@ -294,6 +322,7 @@ INSERT INTO mf_mb (q) VALUES
   ($$SELECT input_error('110/64', E'pl\u00e2ne')$$),
   ($$SELECT moment_tensor('110/64/30', E'n\u00e9d')$$),
   ($$SELECT net_xy('120/30', E'equal\u2011area')$$),
+  ($$SELECT (repeat(E'\u20ac', 30) || '/fault_slip:AAAA')::partial_state$$),
   ($$SELECT (E'{"components": [0.7071067811865476, -0.7071067811865476, 0, 0, 0, 0], "n": 3, "\u00e9": 1}')::stress_tensor$$);
 SELECT id, pg_temp.err(q) AS result FROM mf_mb ORDER BY id;
 
@@ -312,7 +341,8 @@ SELECT v, pg_temp.st_len(q) FROM (VALUES
   ('projection name, 1 MB', $$SELECT net_xy('120/30', repeat(E'\u00e9', 500000))$$),
   ('notation name, 1 MB', $$SELECT input_error('110/64', repeat(E'\u00e9', 500000))$$),
   ('slip sense, 1 MB', $$SELECT fault_slip('110/64'::plane, '110/0'::lineation, repeat(E'\u00e9', 500000))$$),
-  ('field strike, 1 MB', $$SELECT field_fault_slip(repeat(E'\u00e9', 500000), '64', '75', 'N')$$)) t(v, q);
+  ('field strike, 1 MB', $$SELECT field_fault_slip(repeat(E'\u00e9', 500000), '64', '75', 'N')$$),
+  ('partial_state, 1 MB', $$SELECT (repeat(E'\u00e9', 500000) || '/fault_slip:AAAA')::partial_state$$)) t(v, q);
 
 -- ---- a LATIN1 client receives the real error, not 22021 -----------------------------------
 -- The statements are ASCII; chr() makes the characters on the server, all of
@@ -332,6 +362,6 @@ RESET client_encoding;
 \set VERBOSITY terse
 
 -- the backend is alive
-SELECT 'alive' AS backend, (SELECT count(*) FROM mf_cases) + (SELECT count(*) FROM mf_mb) + 14 + 8 AS cases,
+SELECT 'alive' AS backend, (SELECT count(*) FROM mf_cases) + (SELECT count(*) FROM mf_mb) + 15 + 8 AS cases,
        (SELECT count(*) FROM pg_stat_activity WHERE pid = pg_backend_pid()) AS this_session;
 DROP TABLE mf_cases, mf_mb, mf_f, mf_l;

@@ -185,10 +185,8 @@ PartialInfo read_info(const unsigned char *p, size_t len, const char *fn, bool b
 
 // The first characters of a text input, for messages (a partial's text can
 // be megabytes long).
-std::string excerpt(const char *s) {
-  const size_t n = strnlen(s, 41);
-  return n <= 40 ? std::string(s, n) : std::string(s, 40) + "...";
-}
+// At most 40 bytes of the literal, cut at a character boundary (core.hpp, echo_text).
+std::string excerpt(const char *s) { return echo_text(s, 40); }
 
 [[noreturn]] void bad_text(const char *s, const std::string &detail) {
   throw Error(ErrorKind::InvalidText, "invalid input syntax for type partial_state: \"" + excerpt(s) + "\"", detail,
@@ -393,12 +391,12 @@ PartialText scan_partial_text(const char *s) {
   if (!kind_ok) {
     std::string names;
     for (const KindName &k : kKindNames) names += std::string(names.empty() ? "" : ", ") + k.name;
-    bad_text(s, "Unknown kind \"" + kind.substr(0, 40) + "\"; the kinds are " + names + ".");
+    bad_text(s, "Unknown kind \"" + echo_text(kind, 40) + "\"; the kinds are " + names + ".");
   }
   if (input == "lineation") t.input = PartialInput::Lineation;
   else if (input == "plane") t.input = PartialInput::Plane;
   else if (input == "fault_slip") t.input = PartialInput::FaultSlip;
-  else bad_text(s, "Unknown input type \"" + input.substr(0, 40) + "\"; lineation, plane or fault_slip.");
+  else bad_text(s, "Unknown input type \"" + echo_text(input, 40) + "\"; lineation, plane or fault_slip.");
   if (!partial_pair_valid(t.kind, t.input))
     bad_text(s, "No partial aggregate makes a " + label + " partial.");
   t.b64 = colon + 1;

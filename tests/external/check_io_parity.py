@@ -2,8 +2,9 @@
 value's text output reads back to the identical value (dump/restore).
 
 For each type (plane, lineation, fault_slip, cone, stress_tensor, sphere_grid,
-net_figure) a list of values at the edges of what the type accepts is given
-as fields; each value is sent twice: as a text literal written from the same
+net_figure, partial_state) a list of values at the edges of what the type
+accepts is given as fields (for partial_state: the partials the aggregates make,
+truncated, with bits flipped, and relabelled as another kind); each value is sent twice: as a text literal written from the same
 numbers (Python's repr, the shortest text that reads back to the same double,
 and integers as integers), through the type's input function, and as the
 wire format of the type's receive function, through PostgreSQL's COPY BINARY.
@@ -242,7 +243,49 @@ def raw_dumper(type_oid):
 failures = []
 compared = 0
 accepted_total = 0
+PARTIALS = [
+    "fisher_mean_partial(l)", "fisher_mean_partial(p)", "orientation_tensor_partial(l)",
+    "mean_plane_partial(p)", "fold_axis_partial(p)", "density_grid_partial(l, 10)",
+    "stress_inversion_partial(f)", "stress_inversion_partial(f, 10, 1)", "right_dihedra_partial(f, 30)",
+    "focal_stress_inversion_partial(f)", "focal_stress_inversion_partial(f, 0.6)",
+    "focal_stress_inversion_partial(f, NULL, 5, 1)", "stress_phases_partial(f, 2, 1)",
+    "misfit_summary_partial(f, stress_tensor('10/5', '100/20', 0.4), 30)", "moment_tensor_sum_partial(f)",
+    "moment_tensor_sum_partial(f, 5.0)"]
+
+
+def partial_values(conn):
+    """Partials made by the aggregates, and variants of their bytes: the text
+    form is '<kind>/<input>:' and the base64 of the serialized state, the binary
+    form a 16-byte header (kind tag, input, reserved) and the same state."""
+    import base64
+    conn.execute("""CREATE TABLE pdata AS SELECT lineation(37 * g % 360, 7 * g % 90) AS l,
+                      plane(53 * g % 360, 11 * g % 90) AS p, fault_slip(29 * g % 360, 5 + 13 * g % 80, 17 * g % 360 - 180) AS f
+                      FROM generate_series(1, 12) g""")
+    made = []
+    for agg in PARTIALS:
+        t, b = conn.execute(f"SELECT x::text, partial_state_send(x) FROM (SELECT {agg} AS x FROM pdata) s").fetchone()
+        made.append((t.split(":", 1)[0], bytes(b)))
+    out = []
+    for k, (label, b) in enumerate(made):
+        head, state = b[:16], b[16:]
+
+        def pair(lab, hd, st):
+            return (lab + ":" + base64.b64encode(st).decode(), hd + st)
+        out.append(pair(label, head, state))
+        for cut in (1, 4, 8, len(state) - 4):
+            out.append(pair(label, head, state[:-cut]))
+        for pos in list(range(0, min(len(state), 40), 3)) + [len(state) - 1]:
+            for bit in (0x01, 0x80):
+                st = bytearray(state)
+                st[pos] ^= bit
+                out.append(pair(label, head, bytes(st)))
+        other_label, other = made[(k + 7) % len(made)]
+        out.append(pair(other_label, other[:16], state))  # another kind's label and tag
+    return out
+
+
 with psycopg.connect(dbname=DB, autocommit=True) as conn:
+    TYPES.append(("partial_state", partial_values(conn)))
     for tname, values in TYPES:
         oid = conn.execute("SELECT %s::regtype::oid", (tname,)).fetchone()[0]
         cur = conn.cursor()
