@@ -298,7 +298,11 @@ const char *slip_sense(const FaultSlip &f) {
   if (a <= 22.5) return "sinistral";
   if (a >= 157.5) return "dextral";
   if (std::fabs(a - 90.0) <= 22.5) return r > 0 ? "reverse" : "normal";
-  const bool dip_dominant = std::fabs(std::sin(rad(r))) >= std::fabs(std::cos(rad(r)));
+  // Dip slip is named first when it is at least as large as strike slip,
+  // |sin r| >= |cos r|, i.e. 45 <= |r| <= 135, decided on the rake itself: at
+  // 45 and 135 exactly the two components are equal, and sin and cos of the
+  // rounded radian angle would break that tie one way at 45 and the other at 135.
+  const bool dip_dominant = a >= 45.0 && a <= 135.0;
   const bool rev = r > 0, dex = a > 90.0;
   if (dip_dominant) {
     if (rev) return dex ? "reverse-dextral" : "reverse-sinistral";

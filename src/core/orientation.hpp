@@ -218,6 +218,10 @@ Plane plane_through(const Line &a, const Line &b);
 // Slip sense from a (canonical) rake: "normal", "reverse", "dextral",
 // "sinistral", or two of them, dominant first ("normal-dextral"), when the
 // rake is more than 22.5 degrees from a pure sense (common practice, no source).
+// Limits, by |rake| (sign: reverse above 0, normal below): 0..22.5 sinistral,
+// 67.5..112.5 reverse/normal, 157.5..180 dextral, all limits included in the
+// pure sense; in between, the dip-slip word comes first for 45 <= |rake| <= 135
+// (dip slip at least as large as strike slip), the strike-slip word otherwise.
 // One vocabulary with mechanism_class and stress_regime: "normal" and
 // "strike-slip" motion is named alike everywhere; the one word that differs is
 // "reverse" here against "thrust" there, on purpose: a slip sense describes the

@@ -184,6 +184,31 @@ TEST(Geometry, SlipSense) {
   EXPECT_STREQ(slip_sense(FaultSlip{0, 60, -75}), "normal");
 }
 
+TEST(Geometry, SlipSenseClassLimits) {
+  // Each limit of the documented rule (orientation.hpp, README) and a tenth of a
+  // degree on either side: the pure senses include their limits (|rake| 22.5,
+  // 67.5, 112.5, 157.5); where dip slip and strike slip are equal (|rake| 45,
+  // 135) the dip-slip word comes first. The rule itself is common practice, no
+  // source; the words on each side follow from it.
+  struct Case { double rake; const char *sense; };
+  const Case cases[] = {
+      {0, "sinistral"},            {22.4, "sinistral"},          {22.5, "sinistral"},
+      {22.6, "sinistral-reverse"}, {44.9, "sinistral-reverse"},  {45, "reverse-sinistral"},
+      {45.1, "reverse-sinistral"}, {67.4, "reverse-sinistral"},  {67.5, "reverse"},
+      {90, "reverse"},             {112.5, "reverse"},           {112.6, "reverse-dextral"},
+      {134.9, "reverse-dextral"},  {135, "reverse-dextral"},     {135.1, "dextral-reverse"},
+      {157.4, "dextral-reverse"},  {157.5, "dextral"},           {180, "dextral"},
+      {-22.5, "sinistral"},        {-22.6, "sinistral-normal"},  {-44.9, "sinistral-normal"},
+      {-45, "normal-sinistral"},   {-67.4, "normal-sinistral"},  {-67.5, "normal"},
+      {-112.5, "normal"},          {-112.6, "normal-dextral"},   {-135, "normal-dextral"},
+      {-135.1, "dextral-normal"},  {-157.4, "dextral-normal"},   {-157.5, "dextral"},
+  };
+  for (const Case &c : cases) {
+    const FaultSlip f = make_fault_slip(30, 50, c.rake);
+    EXPECT_STREQ(slip_sense(f), c.sense) << "rake " << c.rake;
+  }
+}
+
 TEST(Sense, Parse) {
   Sense s = parse_sense("Normal");
   EXPECT_EQ(s.dip, 1);
