@@ -7,6 +7,9 @@
 
 #include "parse.hpp"
 
+#include <cstdio>
+#include <string>
+
 using namespace striae;
 
 namespace {
@@ -14,6 +17,16 @@ namespace {
 ErrorKind kind_of(void (*f)()) {
   try {
     f();
+  } catch (const Error &e) {
+    return e.kind;
+  }
+  return static_cast<ErrorKind>(-1);
+}
+
+template <class F>
+ErrorKind kind_of_text(F f, const std::string &text) {
+  try {
+    f(text.c_str());
   } catch (const Error &e) {
     return e.kind;
   }
@@ -159,6 +172,77 @@ TEST(ParseFault, Errors) {
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/190"); }), ErrorKind::OutOfRange);
   EXPECT_EQ(kind_of([] { parse_fault_slip("64->200"); }), ErrorKind::InvalidText);
   EXPECT_EQ(kind_of([] { parse_fault_slip("110/64/75 N R"); }), ErrorKind::InvalidText);
+}
+
+TEST(ParsePlane, DipLetterLimits) {
+  // Rule of the README (text notations): two letters name a quadrant, and the
+  // dip direction must lie within 45 degrees of its centre, 45 included; one
+  // letter names a half, within 90 degrees, 90 excluded. Expected strikes are
+  // derived from that rule and the right-hand rule (strike = dip direction - 90).
+  // Both limits of every quadrant, exactly and half a degree either side.
+  const struct { const char *q; double az; } quads[] = {{"NE", 45}, {"SE", 135}, {"SW", 225}, {"NW", 315}};
+  auto lit = [](double strike, const char *q) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.1f/30%s", strike, q);
+    return std::string(buf);
+  };
+  for (const auto &q : quads) {
+    for (double side : {-1.0, 1.0}) {
+      for (double off : {45.0, 44.5, 45.5}) {
+        const double dipdir = norm360(q.az + side * off);
+        const double rhr = norm360(dipdir - 90.0);
+        for (double written : {rhr, norm360(rhr + 180.0)}) {  // either end of the strike line
+          const std::string t = lit(written, q.q);
+          if (off <= 45.0) {
+            EXPECT_PLANE(t.c_str(), rhr, 30);
+          } else {
+            EXPECT_EQ(kind_of_text(parse_plane, t), ErrorKind::InvalidText) << t;  // neither way
+          }
+        }
+      }
+    }
+  }
+  // One letter: exactly 90 degrees from both dip directions is an error; half a
+  // degree off, the nearer dip direction is taken.
+  EXPECT_EQ(kind_of([] { parse_plane("0/30S"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_plane("90/30E"); }), ErrorKind::InvalidText);
+  EXPECT_PLANE("0.5/30S", 0.5, 30);       // dip directions 090.5 (89.5 from S) and 270.5
+  EXPECT_PLANE("359.5/30S", 179.5, 30);   // dip direction 269.5 is 89.5 from S
+  EXPECT_PLANE("90.5/30E", 270.5, 30);    // dip direction 000.5 is 89.5 from E
+  EXPECT_PLANE("89.5/30E", 89.5, 30);     // dip direction 179.5 is 89.5 from E
+}
+
+TEST(ParseLine, BearingLimits) {
+  // Quadrant bearings N|S angle E|W with the angle from 0 to 90, both included
+  // (README); azimuths by the compass convention (common practice, no source).
+  EXPECT_LINE("N90E/30", 90, 30);
+  EXPECT_LINE("S90E/30", 90, 30);
+  EXPECT_LINE("N90W/30", 270, 30);
+  EXPECT_LINE("S90W/30", 270, 30);
+  EXPECT_LINE("N0E/30", 0, 30);
+  EXPECT_LINE("S0W/30", 180, 30);
+  EXPECT_LINE("S10E/30", 170, 30);
+  EXPECT_LINE("S10W/30", 190, 30);
+  EXPECT_EQ(kind_of([] { parse_line("N90.5E/30"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_line("S90.5W/30"); }), ErrorKind::InvalidText);
+}
+
+TEST(ParseFault, PitchEndLimits) {
+  // The strike end of a pitch follows the dip-letter rule (README): two letters
+  // within 45 degrees, 45 included. A pitch psi from the strike end itself with a
+  // normal sense has rake -psi, from the other end -(180 - psi) (derived from the
+  // Aki & Richards rake, METHODS.md section 1).
+  EXPECT_FAULT("0/60/40NE N", 0, 60, -40);       // end 000 is 45 from NE
+  EXPECT_FAULT("0.5/60/40NE N", 0.5, 60, -40);   // end 000.5, 44.5 from NE
+  EXPECT_FAULT("90/60/40NE N", 90, 60, -40);     // end 090, 45 from NE
+  EXPECT_FAULT("89.5/60/40NE N", 89.5, 60, -40);
+  EXPECT_FAULT("180/60/40NE N", 180, 60, -140);  // end 000 = strike + 180
+  EXPECT_FAULT("180/60/40SW N", 180, 60, -40);   // end 180, 45 from SW
+  EXPECT_FAULT("270/60/40SE R", 270, 60, 40);    // end 090 = strike + 180, reverse: u = cos psi s - sin psi dd
+  EXPECT_EQ(kind_of([] { parse_fault_slip("359.5/60/40NE N"); }), ErrorKind::InvalidText);  // ends 45.5 and 134.5 away
+  EXPECT_EQ(kind_of([] { parse_fault_slip("90.5/60/40NE N"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_fault_slip("0/60/40E N"); }), ErrorKind::InvalidText);      // one letter, 90 from both
+  EXPECT_FAULT("0.5/60/40E N", 0.5, 60, -40);                                             // end 000.5 is 89.5 from E
 }
 
 TEST(ParseMisc, Compass) {
