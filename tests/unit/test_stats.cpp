@@ -592,9 +592,13 @@ TEST(Fabric, EmptyGroup) {
   EXPECT_FALSE(r.woodcock_c_valid);
 }
 
-TEST(Fabric, EigenvaluesSortedAndSumToOne) {
-  // T = (1/N) sum x x^T has trace 1 (METHODS.md section 4); s1 >= s2 >= s3 >= 0,
-  // and Vollmer's P + G + R = s1 + s2 + s3 = 1 (derived from Vollmer 1990).
+TEST(Fabric, EigenvaluesMatchTheTensorInvariants) {
+  // T = (1/N) sum x x^T has trace 1 (METHODS.md section 4), and Vollmer's
+  // P + G + R = s1 + s2 + s3 = 1 (derived from Vollmer 1990). The eigenvalues are
+  // checked against the other two invariants of T, built here from the data:
+  // s1 s2 + s1 s3 + s2 s3 = sum of the principal 2x2 minors and s1 s2 s3 =
+  // det T (characteristic polynomial, textbook linear algebra), with T's own
+  // eigenvalues in descending order.
   Rng g(41);
   for (int trial = 0; trial < 50; ++trial) {
     std::vector<Vec3> data;
@@ -603,9 +607,15 @@ TEST(Fabric, EigenvaluesSortedAndSumToOne) {
     for (int i = 0; i < n; ++i) data.push_back(trial % 2 ? g.unit() : g.in_cone(c, 30));
     const FabricResult r = tensor_result(tensor_of(data));
     ASSERT_TRUE(r.axes_valid);
-    EXPECT_GE(r.s1, r.s2);
-    EXPECT_GE(r.s2, r.s3);
-    EXPECT_GE(r.s3, 0.0);
+    Mat3 t = Mat3::Zero();
+    for (const Vec3 &x : data) t += x.normalized() * x.normalized().transpose() / static_cast<double>(n);
+    const double minors = t(0, 0) * t(1, 1) - t(0, 1) * t(0, 1) + t(0, 0) * t(2, 2) - t(0, 2) * t(0, 2) +
+                          t(1, 1) * t(2, 2) - t(1, 2) * t(1, 2);
+    EXPECT_NEAR(r.s1 * r.s2 + r.s1 * r.s3 + r.s2 * r.s3, minors, 1e-14) << trial;
+    EXPECT_NEAR(r.s1 * r.s2 * r.s3, t.determinant(), 1e-14) << trial;
+    // Descending: s1 is the largest root, so T - s1 I has no positive direction.
+    EXPECT_NEAR(r.s1, t.selfadjointView<Eigen::Lower>().eigenvalues().maxCoeff(), 1e-14) << trial;
+    EXPECT_NEAR(r.s3, t.selfadjointView<Eigen::Lower>().eigenvalues().minCoeff(), 1e-14) << trial;
     EXPECT_NEAR(r.s1 + r.s2 + r.s3, 1.0, 1e-15);
     EXPECT_NEAR(r.point + r.girdle + r.random, 1.0, 1e-15);
     // Eigenvectors are mutually perpendicular.
