@@ -22,14 +22,23 @@ SELECT fisher_mean(l) IS NULL AS empty FROM (SELECT '1/1'::lineation l WHERE fal
 SELECT fisher_mean(l) IS NULL AS all_null FROM (VALUES (NULL::lineation), (NULL)) t(l);
 SELECT (fisher_mean(l)).n FROM (VALUES ('10/10'::lineation), (NULL), ('12/10')) t(l);
 
--- orientation tensor: eigenvalues sum to 1 and are sorted; axes of a
--- synthetic girdle (poles of planes sharing the axis 030/20, derived)
+-- orientation tensor: eigenvalues sum to 1; axes of a synthetic girdle (poles of
+-- planes sharing the axis 030/20, derived). The eigenvalues against the tensor
+-- T = (1/N) sum x x^T of the poles built here: s1 s2 + s1 s3 + s2 s3 is the sum
+-- of T's principal 2x2 minors, and with s3 = 0 (a girdle) s1 is the larger root
+-- of s^2 - s + minors (characteristic polynomial, textbook linear algebra)
 CREATE TABLE fold AS
   SELECT plane_through('030/20'::lineation, l) AS p
     FROM (VALUES ('120/00'::lineation), ('300/50'), ('300/80'), ('120/40'), ('210/70'), ('300/20')) t(l);
-SELECT fold_axis(p) AS axis, round((s1 + s2 + s3)::numeric, 12) AS sum_s,
-       s1 >= s2 AND s2 >= s3 AS sorted, round(s3::numeric, 12) AS s3, e3
-  FROM fold, LATERAL (SELECT (orientation_tensor(p)).* FROM fold) o GROUP BY s1, s2, s3, e3;
+WITH t AS (SELECT avg(v[1] * v[1]) xx, avg(v[2] * v[2]) yy, avg(v[3] * v[3]) zz, avg(v[1] * v[2]) xy,
+                  avg(v[1] * v[3]) xz, avg(v[2] * v[3]) yz
+             FROM (SELECT direction_cosines(pole(p)) v FROM fold) x),
+     m AS (SELECT xx * yy - xy^2 + xx * zz - xz^2 + yy * zz - yz^2 AS minors FROM t)
+SELECT fold_axis(p) AS axis, round((o.s1 + o.s2 + o.s3)::numeric, 12) AS sum_s,
+       round((o.s1 * o.s2 + o.s1 * o.s3 + o.s2 * o.s3 - m.minors)::numeric, 12) AS minors_vs_tensor,
+       round((o.s1 - (1 + sqrt(1 - 4 * m.minors)) / 2)::numeric, 9) AS s1_vs_root,
+       round(o.s3::numeric, 12) AS s3, o.e3
+  FROM fold, LATERAL (SELECT (orientation_tensor(p)).* FROM fold) o, m GROUP BY o.s1, o.s2, o.s3, o.e3, m.minors;
 -- a point cluster: Woodcock K > 1 (cluster) and Vollmer point fabric dominant
 SELECT round(woodcock_k::numeric, 4) > 1 AS cluster, vollmer_p > vollmer_g AS point_dominant, n
   FROM (SELECT (orientation_tensor(l)).* FROM (VALUES ('10/40'::lineation), ('12/42'), ('8/41'), ('11/37')) t(l)) s;
