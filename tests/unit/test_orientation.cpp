@@ -33,6 +33,10 @@ TEST(Canonical, PlaneNormalisation) {
   EXPECT_EQ(p.dip, 0);
   p = make_plane(270, 90);  // vertical: 270/90 is 90/90
   EXPECT_EQ(p.strike, 90);
+  p = make_plane(180, 90);  // the limit of [0,180): 180/90 is 0/90
+  EXPECT_EQ(p.strike, 0);
+  p = make_plane(179.5, 90);
+  EXPECT_EQ(p.strike, 179.5);
   p = make_plane(-0.0, 10);
   EXPECT_FALSE(std::signbit(p.strike));
 }
@@ -54,6 +58,9 @@ TEST(Canonical, FaultSlipNormalisation) {
   EXPECT_EQ(f.rake, 180);
   f = make_fault_slip(270, 90, 30);  // (f,90,r) == (f-180,90,-r)
   EXPECT_EQ(f.strike, 90);
+  EXPECT_EQ(f.rake, -30);
+  f = make_fault_slip(180, 90, 30);  // the limit itself
+  EXPECT_EQ(f.strike, 0);
   EXPECT_EQ(f.rake, -30);
   f = make_fault_slip(40, 0, 10);  // horizontal fault: rake from north
   EXPECT_EQ(f.strike, 0);
@@ -239,6 +246,13 @@ TEST(Sense, FromStriation) {
   // 5 degrees off the plane: projected within the default tolerance.
   f = fault_from_striation(p, line_vector(Line{200, 59}), parse_sense("n"), 10);
   EXPECT_NEAR(f.rake, -90, 1e-9);
+  // Either side of the tolerance: in the dip-direction plane the angle between
+  // the line and the plane is the difference of plunges (derived).
+  f = fault_from_striation(p, line_vector(Line{200, 54.5}), parse_sense("n"), 10);
+  EXPECT_NEAR(f.rake, -90, 1e-9);
+  expect_error(ErrorKind::DataError, [] {
+    fault_from_striation(Plane{110, 64}, line_vector(Line{200, 53.5}), parse_sense("n"), 10);
+  });
   expect_error(ErrorKind::DataError, [] {
     fault_from_striation(Plane{110, 64}, line_vector(Line{200, 40}), parse_sense("n"), 10);
   });

@@ -286,6 +286,20 @@ TEST(FisherAxial, ConeOfKnownResultant) {
   }
 }
 
+TEST(FisherAxial, TightClusterIsNotIdentical) {
+  // Data 0.002 degree around their mean are not identical: N - R = N (1 - cos h)
+  // is 6e-10 N (derived, as in ConeOfKnownResultant), far above the rounding of
+  // unit vectors, so kappa = (N-1)/(N-R) (Fisher 1953) is finite and defined;
+  // only R within 1e-15 N of N counts as identical data (stats.cpp).
+  const auto data = cone(L(120, 40), 0.002, 8);
+  const FisherResult r = fisher_result(fisher_of(data));
+  const double R = 8 * std::cos(rad(0.002));
+  ASSERT_TRUE(r.kappa_valid);
+  EXPECT_NEAR(r.kappa, 7 / (8 - R), 1e-4 * r.kappa);
+  ASSERT_TRUE(r.alpha95_valid);
+  EXPECT_NEAR(r.alpha95, alpha95_of(8, R), 1e-4 * r.alpha95);
+}
+
 TEST(FisherAxial, Alpha95UndefinedWhenTooScattered) {
   // 000/00 and 000/80: R = 2 cos 40 = 1.532; cos a = 1 - 19 (2-R)/R = -4.8 < -1,
   // so the exact formula has no solution (Fisher 1953; documented rule).
