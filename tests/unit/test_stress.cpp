@@ -643,6 +643,61 @@ TEST(Michael, DegenerateGroups) {
   EXPECT_STREQ(stress_status_text(StressStatus::TooFewData), "fewer than 4 data");
 }
 
+TEST(Michael, IllConditionedButSolvable) {
+  // Faults within a tenth of a degree of one zone (vertical faults, dips 89.9 and
+  // 90): the system is ill-conditioned (smallest / largest eigenvalue of A^T A
+  // about 1e-6, checked here) but above the rank limit 1e-10 of stress.hpp, so
+  // it is solved. Reference: the least-squares solution of the stacked 3N x 5
+  // system built here from the basis tensors E_k (Michael 1984: rows a_k =
+  // E_k n - (n.E_k n) n, A x = u), by Eigen's JacobiSVD rather than the normal
+  // equations striae sums.
+  Rng r(91);
+  StressAccum s;
+  stress_init(s);
+  Eigen::MatrixXd a(60, 5);
+  Eigen::VectorXd b(60);
+  const Mat3 basis[5] = {(Mat3() << 1, 0, 0, 0, 0, 0, 0, 0, -1).finished(),
+                         (Mat3() << 0, 1, 0, 1, 0, 0, 0, 0, 0).finished(),
+                         (Mat3() << 0, 0, 1, 0, 0, 0, 1, 0, 0).finished(),
+                         (Mat3() << 0, 0, 0, 0, 1, 0, 0, 0, -1).finished(),
+                         (Mat3() << 0, 0, 0, 0, 0, 1, 0, 1, 0).finished()};
+  for (int i = 0; i < 20; ++i) {
+    Vec3 n, u;
+    fault_vectors(make_fault_slip(360 * r.uniform(), i % 2 ? 89.9 : 90.0, 360 * r.uniform() - 180), n, u);
+    stress_add(s, n, u);
+    for (int k = 0; k < 5; ++k) {
+      const Vec3 w = basis[k] * n;
+      a.block<3, 1>(3 * i, k) = w - n.dot(w) * n;
+    }
+    b.segment<3>(3 * i) = u;
+  }
+  const Eigen::JacobiSVD<Eigen::MatrixXd> svd(a, Eigen::ComputeThinU | Eigen::ComputeThinV);
+  const double ratio = std::pow(svd.singularValues()(4) / svd.singularValues()(0), 2);
+  EXPECT_GT(ratio, 1e-9);
+  EXPECT_LT(ratio, 1e-4);
+  StressTensor t;
+  ASSERT_EQ(stress_finalise(s, t), StressStatus::Ok);
+  const Eigen::VectorXd x = svd.solve(b);
+  double c[6] = {-x(0), -x(3), x(0) + x(3), -x(1), -x(2), -x(4)};  // compression positive
+  const double f = std::sqrt(c[0] * c[0] + c[1] * c[1] + c[2] * c[2] + 2 * (c[3] * c[3] + c[4] * c[4] + c[5] * c[5]));
+  const double got[6] = {t.nn, t.ee, t.dd, t.ne, t.nd, t.ed};
+  for (int k = 0; k < 6; ++k) EXPECT_NEAR(got[k], c[k] / f, 1e-6) << k;  // conditioning costs digits
+}
+
+TEST(Misfit, MeanOfReversedSlips) {
+  // Slips opposite to the resolved shear misfit by 180 degrees (Wallace-Bott:
+  // the angle between u and tau, 0..180), so their mean is 180, and a half-and-half
+  // set means 90 (derived).
+  const StressTensor truth = oblique();
+  std::vector<SlipDatum> data = wb_data(truth, 20, 0, 5);
+  for (SlipDatum &d : data)
+    for (double &v : d.u) v = -v;
+  EXPECT_NEAR(*mean_misfit(data.data(), data.size(), truth), 180.0, 1e-9);
+  for (size_t i = 0; i < data.size(); i += 2)
+    for (double &v : data[i].u) v = -v;
+  EXPECT_NEAR(*mean_misfit(data.data(), data.size(), truth), 90.0, 1e-9);
+}
+
 TEST(Michael, ValidateRejectsMalformedState) {
   const StressAccum good = accumulate(wb_data(oblique(), 30, 0, 3));
   EXPECT_NO_THROW(stress_validate(good));
