@@ -877,6 +877,51 @@ TEST(Focal, NoisyAndFrictionSearch) {
   }
 }
 
+TEST(Focal, FrictionAtLimitFlag) {
+  // stress.hpp: a searched friction that ends at either end of its grid is
+  // flagged friction_at_limit, an interior one is not. The best grid value is
+  // found here from the score of each value (focal_fixed_friction at the grid
+  // values, rounded as invert_focal rounds them; the first of equal scores),
+  // and the ranges are chosen so that the best lies at the bottom, inside and
+  // at the top (checked), so both ends of the rule are exercised.
+  const StressTensor truth = stress_from_axes(make_line(100, 10), make_line(5, 30), 0.6);
+  std::vector<uint8_t> is_aux;
+  const std::vector<SlipDatum> data = mechanisms(truth, 200, 5.0, 32, is_aux, 0.9);
+  struct Range { double lo, hi; };
+  int where[3] = {0, 0, 0};  // best at the bottom, inside, at the top
+  for (const Range &rg : {Range{0.2, 0.4}, Range{0.2, 1.0}, Range{0.9, 1.5}, Range{0.05, 0.25}, Range{1.2, 2.0}}) {
+    FrictionRange fr;
+    fr.mu_min = rg.lo;
+    fr.mu_max = rg.hi;
+    fr.step = 0.1;
+    const int steps = static_cast<int>(std::floor((rg.hi - rg.lo) / 0.1 + 1e-9)) + 1;
+    int best = -1;
+    double best_score = 0;
+    for (int j = 0; j < steps; ++j) {
+      const double mu = std::min(rg.hi, std::round((rg.lo + j * 0.1) * 1e12) / 1e12);
+      StressTensor t;
+      double score;
+      int32_t iters;
+      std::vector<uint8_t> p(data.size());
+      ASSERT_EQ(focal_fixed_friction(data.data(), data.size(), nullptr, mu, p.data(), t, score, iters), StressStatus::Ok);
+      if (best < 0 || score > best_score) {
+        best = j;
+        best_score = score;
+      }
+    }
+    std::vector<uint8_t> picked(data.size());
+    FocalInversion fi;
+    ASSERT_EQ(invert_focal(data.data(), data.size(), fr, picked.data(), fi), StressStatus::Ok);
+    EXPECT_NEAR(fi.friction, std::min(rg.hi, std::round((rg.lo + best * 0.1) * 1e12) / 1e12), 1e-12) << rg.lo;
+    const bool at_end = best == 0 || best == steps - 1;
+    EXPECT_EQ(static_cast<bool>(fi.tensor.flags & kStressFrictionAtLimit), at_end) << rg.lo << ".." << rg.hi;
+    ++where[best == 0 ? 0 : best == steps - 1 ? 2 : 1];
+  }
+  EXPECT_GT(where[0], 0);
+  EXPECT_GT(where[1], 0);
+  EXPECT_GT(where[2], 0);
+}
+
 TEST(Focal, LimitsAndDegenerateGroups) {
   std::vector<uint8_t> is_aux;
   const std::vector<SlipDatum> data = mechanisms(oblique(), 3, 0.0, 33, is_aux);
