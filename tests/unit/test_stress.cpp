@@ -992,7 +992,8 @@ TEST(StressText, ParsesEveryKeyAndRejectsBadInput) {
   const StressTensor u = parse_stress_tensor("{\"n\": 0, \"components\": [0, 0, 0, 1, 0, 0]}");
   EXPECT_EQ(u.flags, 0u);
   EXPECT_EQ(u.ne, 1);
-  for (const char *bad : {"", "{}", "{\"n\": 1}", "{\"components\": [1, 2], \"n\": 1}",
+  for (const char *bad : {"", "{}", "{\"n\": 1}", "{\"components\": [0, 0, 0, 1, 0, 0]}",  // both keys required
+                          "{\"components\": [1, 2], \"n\": 1}",
                           "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1.5}",
                           "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1, \"n\": 1}",
                           "{\"components\": [0, 0, 0, 1, 0, 0], \"n\": 1, \"flags\": [\"odd\"]}",
