@@ -273,8 +273,8 @@ bool same_summary(const Summary &a, const Summary &b) {
 }  // namespace
 
 TEST(Bootstrap, LevelKeptCountAndSeedArePinned) {
-  // The kept count is ceil(level M) (bootstrap.hpp): 0.95 x 20 = 19 exactly (not
-  // 20), 0.95 x 30 = 28.5 -> 29, 0.8 x 40 = 32, 0.5 x 7 = 3.5 -> 4, level 1 keeps
+  // The kept count is ceil(level M) (bootstrap.hpp), level 0.95 by default:
+  // 0.95 x 20 = 19 exactly (not 20), 0.95 x 30 = 28.5 -> 29, 0.8 x 40 = 32, 0.5 x 7 = 3.5 -> 4, level 1 keeps
   // all, one resample keeps one. Each case is compared with the summary
   // recomputed by reference_summary, and the case is shown to be sharp: keeping
   // one resample fewer or one more, or drawing from the next seed, gives a
@@ -283,12 +283,12 @@ TEST(Bootstrap, LevelKeptCountAndSeedArePinned) {
   // extend any cone or the interval).
   const std::vector<SlipDatum> data = noisy_data(truth(), 14, 12.0, 61);
   struct Case { int resamples; double level; size_t keep; uint64_t seed; };
-  const Case cases[] = {{20, 0.95, 19, 7}, {30, 0.95, 29, 3}, {40, 0.8, 32, 7},
+  const Case cases[] = {{20, 0.0, 19, 7}, {30, 0.95, 29, 3}, {40, 0.8, 32, 7},  // 0: the default level
                         {7, 0.5, 4, 8},    {13, 1.0, 13, 9},  {1, 0.95, 1, UINT64_MAX}};
   for (const Case &c : cases) {
     BootstrapOptions o;
     o.resamples = c.resamples;
-    o.level = c.level;
+    if (c.level > 0) o.level = c.level;  // else the default, 0.95 (bootstrap.hpp, README)
     o.seed = c.seed;
     StressTensor t;
     ASSERT_EQ(stress_bootstrap(data.data(), data.size(), o, t), StressStatus::Ok);
