@@ -9,6 +9,7 @@
 #   make unit       GoogleTest unit tests of src/core only (no server)
 #   make sanitize   the unit tests under AddressSanitizer and UndefinedBehaviorSanitizer
 #   make fuzz       libFuzzer harnesses, FUZZ_SECONDS (default 300) per target
+#   make mutation   mutation score of the tests (tests/mutation/mutants.txt)
 #
 # Two extensions are built and installed side by side: striae (C++, this
 # library) and its companion striae_gis (SQL only, requires striae and PostGIS;
@@ -147,6 +148,14 @@ fuzz-seeds:
 	g++ $(UNIT_CXXFLAGS) $(CORE_SRCS) tests/fuzz/make_seeds.cpp -o $(BUILD)/make_seeds
 	rm -rf tests/fuzz/corpus && ./$(BUILD)/make_seeds tests/fuzz/corpus
 
+# ---- mutation score (not part of `make test`; minutes to an hour) ---------------
+# Plants the mutants of tests/mutation/mutants.txt into a copy of the tree one at
+# a time and runs the unit tests, then for the survivors the regression and
+# external checks on one throwaway cluster (DEVELOPERS.md). MUTATE_ARGS passes
+# options, e.g. MUTATE_ARGS='--only stress-tendency' or '--unit-only'.
+mutation: deps
+	/usr/bin/python3 scripts/mutate.py --cxxflags "$(UNIT_CXXFLAGS)" $(MUTATE_ARGS)
+
 # ---- the commands of the README ---------------------------------------------
 deps:
 	bash scripts/install-deps.sh
@@ -176,4 +185,4 @@ clean: clean-striae
 clean-striae:
 	rm -rf $(BUILD) results regression.diffs regression.out demo-out
 
-.PHONY: unit deps test cluster-tests demo bench clean-striae sanitize fuzz fuzz-build fuzz-smoke fuzz-seeds
+.PHONY: unit deps test cluster-tests demo bench clean-striae sanitize fuzz fuzz-build fuzz-smoke fuzz-seeds mutation
