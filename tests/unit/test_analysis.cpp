@@ -437,4 +437,36 @@ TEST(MisfitSummary, MeanMedianAbove) {
   EXPECT_EQ(s.above, 1);
   EXPECT_FALSE(summarise_misfits(w.data(), 0, 2, 8, s));
   EXPECT_THROW(summarise_misfits(w.data(), w.size(), 0, 181, s), Error);
+  // "above" means strictly above the threshold (phases.hpp): a misfit equal to it is not.
+  std::vector<double> e = {30, 30.000001, 29.999999, 0};
+  ASSERT_TRUE(summarise_misfits(e.data(), e.size(), 0, 30, s));
+  EXPECT_EQ(s.above, 1);
+  std::vector<double> z = {0, 0, 0};
+  ASSERT_TRUE(summarise_misfits(z.data(), z.size(), 0, 0, s));
+  EXPECT_EQ(s.above, 0);
+}
+
+TEST(Phases, UndefinedMisfitCountsAsNinetyDegrees) {
+  // phases.hpp: a datum whose plane is normal to a principal axis of a tensor has
+  // no misfit under it and counts as 90 degrees there, so a tensor under which it
+  // misfits by 60 degrees takes it, and one under which it misfits by 120 does not.
+  const StressTensor a = stress_from_axes(make_line(30, 60), make_line(210, 30), 0.3);
+  const StressTensor b = stress_from_axes(make_line(100, 10), make_line(5, 30), 0.6);
+  Vec3 n = principal_stresses(a).axis[0];
+  if (n.z() > 0) n = -n;
+  const Vec3 tau = *resolved_slip(n, b);  // predicted slip under b, in the plane
+  const Vec3 side = n.cross(tau);         // in the plane, at right angles to tau
+  for (double want : {60.0, 120.0}) {
+    const Vec3 u = std::cos(rad(want)) * tau + std::sin(rad(want)) * side;
+    const StressTensor ts[2] = {a, b};
+    std::optional<double> m;
+    const int j = best_phase(n, u, ts, 2, m);
+    if (want < 90) {
+      EXPECT_EQ(j, 1);
+      ASSERT_TRUE(m.has_value());
+      EXPECT_NEAR(*m, 60.0, 1e-9);
+    } else {
+      EXPECT_EQ(j, 0);
+    }
+  }
 }
