@@ -319,8 +319,10 @@ TEST(SerialKeep, RoundTripAndParameterChecks) {
                             {kKeepFocal, 10, 1, 0, 0},          // resamples without bootstrap
                             {kKeepFocal, 0, 0, 9.0, 0},         // friction out of range
                             {kKeepFocalBootstrap, 10, 1, NAN, 0},
-                            {kKeepFocal, 0, 0, 0, -1}};
+                            {kKeepFocal, 0, 0, 0, -1},
+                            {kKeepFocal, 0, 0, 0, static_cast<int64_t>(kMaxBootstrapData) + 1}};  // over the data bound
   for (const KeepParams &p : bad) EXPECT_EQ(error_of([&] { check_keep_params(p); }).kind, ErrorKind::BadState);
+  EXPECT_NO_THROW(check_keep_params(KeepParams{kKeepFocal, 0, 0, 0, static_cast<int64_t>(kMaxBootstrapData)}));
   // a datum that is not a unit, orthogonal pair
   d[3].u[0] += 0.01;
   Bytes b(keep_serial_size(9));

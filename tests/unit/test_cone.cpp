@@ -123,6 +123,19 @@ TEST(Cone, LeafDistanceIsTheOperatorValue) {
   }
 }
 
+TEST(Cone, PenaltyIsTheGrowthOfTheHalfAngle) {
+  // cone.hpp: the penalty of adding a key to a cone is how much the half-angle
+  // must grow to enclose it: max(0, angle between axes + key radius - radius)
+  // (derived from the definition; axial angles along one horizontal ring are
+  // the differences of trend).
+  const Cone have = make_cone(make_line(0, 0), 20);
+  EXPECT_NEAR(key_penalty(have, leaf_key(make_line(10, 0))), 0.0, 1e-12);
+  EXPECT_NEAR(key_penalty(have, leaf_key(make_line(30, 0))), 10.0, 1e-12);
+  EXPECT_NEAR(key_penalty(have, make_cone(make_line(15, 0), 4)), 0.0, 1e-12);
+  EXPECT_NEAR(key_penalty(have, make_cone(make_line(15, 0), 8)), 3.0, 1e-12);
+  EXPECT_NEAR(key_penalty(have, leaf_key(make_line(170, 0))), 0.0, 1e-12);  // axial: 10 degrees away
+}
+
 TEST(Cone, SplitKeepsAQuarterOnEachSide) {
   Rng rng(11);
   for (int n : {2, 3, 5, 40, 121}) {
@@ -135,6 +148,19 @@ TEST(Cone, SplitKeepsAQuarterOnEachSide) {
     const int left = static_cast<int>(std::count(side.begin(), side.end(), 0));
     EXPECT_GE(left, std::max(1, n / 4)) << n;
     EXPECT_GE(n - left, std::max(1, n / 4)) << n;
+  }
+  // One key far from 39 close together: the natural split (1 : 39) is pulled to
+  // a quarter on each side (the rule of cone.hpp), 10 : 30.
+  {
+    std::vector<Cone> lop;
+    lop.push_back(leaf_key(make_line(0, 0)));
+    for (int i = 0; i < 39; ++i) lop.push_back(leaf_key(make_line(180 + 0.2 * i, 80)));
+    std::vector<const Cone *> lp;
+    for (const Cone &k : lop) lp.push_back(&k);
+    std::vector<unsigned char> ls(40);
+    key_split(lp.data(), 40, ls.data());
+    const int left = static_cast<int>(std::count(ls.begin(), ls.end(), 0));
+    EXPECT_GE(std::min(left, 40 - left), 10);
   }
   // Two tight clusters far apart are split between them.
   std::vector<Cone> keys;
