@@ -392,12 +392,16 @@ def cluster_stage(args):
                 raise StopIteration
             subprocess.run(["chmod", "-R", "a+rX", dest], check=True)
             for name in regress:
+                t1 = time.time()
                 r = subprocess.run(["make", "-s", "installcheck", f"REGRESS={name}"], cwd=TREE,
                                    capture_output=True, text=True, timeout=plan["timeout"])
+                if plan.get("verbose"):
+                    log(f"    regress {name}: exit {r.returncode} ({time.time() - t1:.1f} s)")
                 if r.returncode != 0:
                     fate, detail = "killed", f"regress {name}"
                     raise StopIteration
             for name in externals:
+                t1 = time.time()
                 cmd = (["/usr/bin/python3", name] if name.endswith(".py") else ["bash", name])
                 try:
                     r = subprocess.run(cmd, cwd=os.path.join(TREE, "tests/external"), capture_output=True,
@@ -405,9 +409,12 @@ def cluster_stage(args):
                 except subprocess.TimeoutExpired:
                     fate, detail = "killed", f"external {name} timed out"
                     raise StopIteration
+                if plan.get("verbose"):
+                    log(f"    external {name}: exit {r.returncode} ({time.time() - t1:.1f} s)")
                 if r.returncode != 0:
                     fate, detail = "killed", f"external {name}"
                     raise StopIteration
+            detail = f"{len(regress)} regression files and {len(externals)} external checks pass"
         except StopIteration:
             pass
         except subprocess.TimeoutExpired as e:
@@ -445,6 +452,7 @@ def main():
     ap.add_argument("--run-equivalent", action="store_true",
                     help="also run mutants marked equivalent (they should survive)")
     ap.add_argument("--jobs", type=int, default=2, help="parallel compiles (default 2)")
+    ap.add_argument("--verbose", action="store_true", help="stage 2: print every test run with its time")
     ap.add_argument("--no-cache", action="store_true",
                     help="rerun the unit tests of mutants whose objects and tests did not change")
     ap.add_argument("--target", type=float, default=95.0, help="score needed for exit status 0 (percent)")
@@ -577,7 +585,8 @@ def main():
             json.dump({"mutants": [{"id": m.id, "file": m.file, "find": m.find, "replace": m.replace}
                                    for m in survivors],
                        "regress": regress, "externals": externals, "jobs": args.jobs,
-                       "timeout": 600, "out": out_path, "work": WORK, "tree": TREE}, f)
+                       "timeout": 600, "out": out_path, "work": WORK, "tree": TREE,
+                       "verbose": args.verbose}, f)
         log(f"mutation: {len(survivors)} survivors of the unit tests; building the server library and "
             f"starting one cluster for regression ({len(regress)} files) and external checks ({len(externals)})")
         r = subprocess.run(["make", "-s", f"-j{args.jobs}", "all"], cwd=TREE, capture_output=True, text=True)

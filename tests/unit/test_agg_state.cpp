@@ -133,6 +133,21 @@ TEST(SerialFixed, RoundTripsAndRejections) {
   bs.push_back(0);
   e = error_of([&] { read_stress_state(bs.data(), bs.size(), s2, "stress_inversion_deserialize"); });
   EXPECT_EQ(e.kind, ErrorKind::BadState);
+  // the right length with another marker: each kind checks its own magic (agg_state.cpp)
+  for (Bytes *b : {&bf, &bt}) {
+    Bytes m = *b;
+    m[0] ^= 1;
+    const bool fisher = b == &bf;
+    e = error_of([&] {
+      if (fisher) read_fisher_state(m.data(), m.size(), f2, "fisher_deserialize");
+      else read_tensor_state(m.data(), m.size(), t2, "tensor_deserialize");
+    });
+    EXPECT_EQ(e.kind, ErrorKind::BadState) << fisher;
+  }
+  bs.pop_back();
+  bs[3] ^= 0x20;
+  e = error_of([&] { read_stress_state(bs.data(), bs.size(), s2, "stress_inversion_deserialize"); });
+  EXPECT_EQ(e.kind, ErrorKind::BadState);
 }
 
 // Finding (fuzz_state_stress, regress/offdiag-sum-1e308): a state with an

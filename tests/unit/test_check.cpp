@@ -173,6 +173,19 @@ TEST(Display, RoundsAndPads) {
   EXPECT_THROW(display(Plane{1, 1}, -1), Error);
 }
 
+TEST(Display, StressTensorWithCountAndMisfit) {
+  // display.hpp: the three axes, phi with two more decimals than the angles, then
+  // ', n N' for a tensor from data and ', misfit M' when the mean misfit is defined.
+  // An Andersonian strike-slip state (sigma1 040/00, sigma3 130/00, vertical sigma2).
+  StressTensor t = stress_from_axes(Line{40, 0}, Line{130, 0}, 0.3);
+  EXPECT_EQ(display(t, 0), "sigma1 040/00, sigma2 000/90, sigma3 130/00, phi 0.30");
+  t.data_count = 12;
+  EXPECT_EQ(display(t, 0), "sigma1 040/00, sigma2 000/90, sigma3 130/00, phi 0.30, n 12");
+  t.mean_misfit = 4.46;
+  t.flags |= kStressHasMisfit;
+  EXPECT_EQ(display(t, 1), "sigma1 040.0/00.0, sigma2 000.0/90.0, sigma3 130.0/00.0, phi 0.300, n 12, misfit 4.5");
+}
+
 TEST(Display, StressTensorSummary) {
   // Axes of a forward tensor are the given ones (derived from the construction).
   const StressTensor t = stress_from_axes(make_line(40, 0), make_line(130, 0), 0.3);
