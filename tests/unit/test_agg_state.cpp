@@ -380,15 +380,17 @@ TEST(GridBinary, DataCountRangeOfText) {
   s += "]}";
   const GridHeader h = parse_grid_header(s.c_str());
   EXPECT_EQ(h.n, int64_t(1) << 53);
-  // and the lower limit, one datum (README: n is a whole number of data, at least 1)
+  // and the lower limit, one datum (README: n is a whole number of data, at least 1),
+  // in text (read as an integer, range checked by check_grid) and binary input alike
   auto with_n = [&](const char *n) {
     std::string t = std::string("{\"kind\": \"right_dihedra\", \"spacing\": 45, \"n\": ") + n + ", \"values\": [";
     for (int k = 0; k < count; ++k) t += k ? ", 10" : "10";
     return t + "]}";
   };
   EXPECT_EQ(parse_grid_header(with_n("1").c_str()).n, 1);
-  EXPECT_EQ(error_of([&] { parse_grid_header(with_n("0").c_str()); }).kind, ErrorKind::InvalidText);
   EXPECT_EQ(error_of([&] { parse_grid_header(with_n("1.5").c_str()); }).kind, ErrorKind::InvalidText);
+  EXPECT_NO_THROW(check_grid(GridKind::RightDihedra, 45, 1, v.data(), v.size()));
+  EXPECT_EQ(error_of([&] { check_grid(GridKind::RightDihedra, 45, 0, v.data(), v.size()); }).kind, ErrorKind::OutOfRange);
 }
 
 // Text input read "n" as a double: 2^53 + 1 rounded to 2^53 and was accepted,

@@ -223,8 +223,8 @@ TEST(ParseLine, BearingLimits) {
   EXPECT_LINE("S0W/30", 180, 30);
   EXPECT_LINE("S10E/30", 170, 30);
   EXPECT_LINE("S10W/30", 190, 30);
-  EXPECT_EQ(kind_of([] { parse_line("N90.5E/30"); }), ErrorKind::InvalidText);
-  EXPECT_EQ(kind_of([] { parse_line("S90.5W/30"); }), ErrorKind::InvalidText);
+  EXPECT_EQ(kind_of([] { parse_line("N90.5E/30"); }), ErrorKind::OutOfRange);  // a value out of its range (22003)
+  EXPECT_EQ(kind_of([] { parse_line("S90.5W/30"); }), ErrorKind::OutOfRange);
 }
 
 TEST(ParseFault, PitchEndLimits) {
