@@ -44,7 +44,6 @@ import os
 import re
 import shlex
 import shutil
-import signal
 import subprocess
 import sys
 import time
@@ -243,10 +242,6 @@ class UnitBuild:
                 except FileNotFoundError:
                     return None  # a header went away: recompile
         return h.hexdigest()[:20]
-
-    def includes(self, unit, rel):
-        deps = self.deps(unit)
-        return deps is None or unit == rel or rel in deps
 
     def _compile(self, unit, key):
         out = os.path.join(OBJ, f"{unit.replace('/', '__')}-{key}.o")
