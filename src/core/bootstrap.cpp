@@ -81,6 +81,23 @@ void draw(Rng &rng, uint32_t *mult, size_t count) {
   for (size_t k = 0; k < count; ++k) ++mult[rng.below(n)];
 }
 
+// The same draws as multiplicities in doubles, the weights of the sums
+// (counts up to 10^6 are exact in a double).
+void draw(Rng &rng, double *mult, size_t count) {
+  std::fill(mult, mult + count, 0.0);
+  const uint32_t n = static_cast<uint32_t>(count);
+  for (size_t k = 0; k < count; ++k) mult[rng.below(n)] += 1.0;
+}
+
+// Resamples per batch of the linear bootstrap: 16, fewer when the batch's
+// weights (8 bytes per datum and resample) would pass 8 MB; at least 2, so
+// two sums are in flight in the kernel.
+int bootstrap_batch(size_t count, int resamples) {
+  const size_t by_memory = (size_t(1) << 20) / std::max<size_t>(count, 1);
+  const int batch = static_cast<int>(std::clamp<size_t>(by_memory, 2, 16));
+  return std::min(batch, resamples);
+}
+
 // Angle between two unit-norm tensors, degrees.
 double tensor_distance(const StressTensor &a, const StressTensor &b) {
   const double dot = a.nn * b.nn + a.ee * b.ee + a.dd * b.dd +
@@ -145,6 +162,13 @@ void set_misfit(const SlipDatum *data, size_t count, StressTensor &t) {
 // Linear inversion
 // ---------------------------------------------------------------------------
 
+// Draws of a batch, then its sums in one pass over the table.
+void bootstrap_batch_sums(Rng &rng, const double *table, size_t count, int nres, double *w, double *out,
+                          SimdPath path) {
+  for (int b = 0; b < nres; ++b) draw(rng, w + static_cast<size_t>(b) * count, count);
+  weighted_term_sums(path, table, count, w, count, nres, out);
+}
+
 // Best solution plus Michael (1987) bootstrap.
 StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const BootstrapOptions &opt,
                               StressTensor &out) {
@@ -167,20 +191,24 @@ StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const Bootstr
   if (st != StressStatus::Ok) return st;
   set_misfit(data, count, out);
 
+  // Resamples in batches: the draws of a batch (in stream order, so the same
+  // seed gives the same resamples) as multiplicities, then the batch's weighted
+  // sums in one pass over the table (kernels.hpp: each sum in data order, so
+  // every resample's sums are bit-identical to summing it alone).
   Rng rng(opt.seed);
-  std::vector<uint32_t> mult(count);
-  std::vector<Resample> rs(static_cast<size_t>(opt.resamples));
-  for (auto &r : rs) {
-    draw(rng, mult.data(), count);
-    // Eigen's explicit SIMD on a stack vector (the build is -O2, where GCC does not
-    // vectorise the plain loop); no branch on a zero multiplicity, which is cheaper.
-    Eigen::Matrix<double, 20, 1> acc = Eigen::Matrix<double, 20, 1>::Zero();
-    const double *c = table.data();
-    for (size_t i = 0; i < count; ++i, c += 20)
-      acc.noalias() += static_cast<double>(mult[i]) * Eigen::Map<const Eigen::Matrix<double, 20, 1>>(c);
-    StressTensor t;
-    const StressStatus rst = stress_solve(acc.data(), static_cast<double>(count), n, t);
-    r = record(rst, t, out);
+  const int total = opt.resamples;
+  const int batch = bootstrap_batch(count, total);
+  std::vector<double> w(static_cast<size_t>(batch) * count);
+  std::vector<double> sums_batch(static_cast<size_t>(batch) * 20);
+  std::vector<Resample> rs(static_cast<size_t>(total));
+  for (int r0 = 0; r0 < total; r0 += batch) {
+    const int nb = std::min(batch, total - r0);
+    bootstrap_batch_sums(rng, table.data(), count, nb, w.data(), sums_batch.data());
+    for (int b = 0; b < nb; ++b) {
+      StressTensor t;
+      const StressStatus rst = stress_solve(&sums_batch[static_cast<size_t>(b) * 20], static_cast<double>(count), n, t);
+      rs[static_cast<size_t>(r0 + b)] = record(rst, t, out);
+    }
   }
   summarise(rs, opt.level, out);
   return StressStatus::Ok;

@@ -32,6 +32,7 @@
 // iterations of the joint inversion per resample.
 #pragma once
 
+#include "kernels.hpp"
 #include "stress.hpp"
 
 #include <cstdint>
@@ -89,6 +90,15 @@ inline uint32_t Rng::below(uint32_t bound) {
   }
   return static_cast<uint32_t>(m >> 32);
 }
+
+// The resampled normal equations of a batch of the linear bootstrap: draws nres
+// resamples of count data from rng (count draws each, in stream order, as
+// multiplicities in w, nres x count doubles of scratch), then out[r*20 + k] =
+// sum over i in data order of w[r][i] * table[i*20 + k] (weighted_term_sums,
+// kernels.hpp: bit-identical on every path to summing one resample at a time).
+// table holds each datum's 20 terms (stress_contribution). count >= 1.
+void bootstrap_batch_sums(Rng &rng, const double *table, size_t count, int nres, double *w, double *out,
+                          SimdPath path = simd_best_path());
 
 struct BootstrapOptions {
   int32_t resamples = 1000;  // 1 .. kMaxResamples

@@ -11,6 +11,7 @@
 
 #include "../core/bootstrap.hpp"
 #include "../core/dihedra.hpp"
+#include "../core/kernels.hpp"
 #include "../core/stress.hpp"
 #include "../core/stress_text.hpp"
 
@@ -382,14 +383,20 @@ STRIAE_FUNCTION(stress_inversion_final) {
 // ---- right_dihedra(fault_slip, spacing) (Angelier & Mechler 1977) ------------------------------
 //
 // State: DihedraHeader followed by node_count int64 counts, one palloc chunk in
-// the aggregate context. The node table depends only on the spacing and is kept
-// per backend in a static (one spacing at a time; recomputed when it changes).
+// the aggregate context, and a block of pending rows (kernels.hpp), a second
+// chunk allocated with the state. Rows are copied into the block and counted a
+// block at a time; everything that reads the counts (combine, the serialized
+// size and bytes of kDihedraOps, final) flushes the block first, so serialized
+// states and partial_state values hold counts only. The node table depends only
+// on the spacing and is kept per backend in a static (one spacing at a time;
+// recomputed when it changes).
 
 namespace {
 
 struct DihedraAgg {
   StateTag tag;  // StateKind::RightDihedra
   DihedraHeader h;
+  DihedraBlock *block;  // pending rows, counted into counts when full or flushed
   int64_t counts[FLEXIBLE_ARRAY_MEMBER];
 };
 static_assert(std::is_trivially_destructible<DihedraHeader>::value, "palloc'd state");
@@ -399,11 +406,8 @@ DihedraAgg *dihedra_new(MemoryContext ctx, const DihedraHeader &h) {
   DihedraAgg *a = static_cast<DihedraAgg *>(MemoryContextAllocZero(ctx, size));
   a->tag = state_tag(StateKind::RightDihedra);
   a->h = h;
+  a->block = static_cast<DihedraBlock *>(MemoryContextAllocZero(ctx, sizeof(DihedraBlock)));
   return a;
-}
-
-Size dihedra_size(const DihedraAgg *a) {
-  return offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(a->h.node_count);
 }
 
 // Node table for a spacing, cached per backend.
@@ -422,6 +426,14 @@ const double *dihedra_nodes(double spacing) {
 
 DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k, const char *fn) {
   return state_arg<DihedraAgg>(fcinfo, k, fn, StateKind::RightDihedra);
+}
+
+// Count the pending rows, so that counts and data_count are the state's value
+// (the value does not change: rows move from the block into the counts).
+void dihedra_settle(DihedraAgg *a) {
+  if (a->block->rows == 0) return;
+  const double *nodes = dihedra_nodes(a->h.spacing);
+  guarded([&] { dihedra_flush(a->h, a->counts, nodes, *a->block); });
 }
 
 [[noreturn]] void dihedra_spacing_mismatch() {
@@ -447,7 +459,7 @@ STRIAE_FUNCTION(right_dihedra_accum) {
   if (PG_ARGISNULL(1)) PG_RETURN_POINTER(a);
   const SlipDatum d = slip_datum(fcinfo, 1);
   const double *nodes = dihedra_nodes(spacing);
-  guarded([&] { dihedra_add(a->h, a->counts, nodes, d.n, d.u); });
+  guarded([&] { dihedra_push(a->h, a->counts, nodes, *a->block, d.n, d.u); });
   PG_RETURN_POINTER(a);
 }
 
@@ -462,8 +474,10 @@ void *dihedra_read(MemoryContext ctx, const unsigned char *p, size_t len, const 
 
 void *dihedra_combine_states(MemoryContext, void *into, void *from, const char *) {
   DihedraAgg *a = static_cast<DihedraAgg *>(into);
-  const DihedraAgg *b = static_cast<const DihedraAgg *>(from);
+  DihedraAgg *b = static_cast<DihedraAgg *>(from);
   if (a->h.spacing != b->h.spacing) dihedra_spacing_mismatch();
+  dihedra_settle(a);
+  dihedra_settle(b);
   guarded([&] {
     dihedra_validate(a->h, a->counts);
     dihedra_validate(b->h, b->counts);
@@ -472,10 +486,15 @@ void *dihedra_combine_states(MemoryContext, void *into, void *from, const char *
   return a;
 }
 
-size_t dihedra_bytes(void *s, const char *) { return dihedra_serial_size(static_cast<DihedraAgg *>(s)->h); }
+size_t dihedra_bytes(void *s, const char *) {
+  DihedraAgg *a = static_cast<DihedraAgg *>(s);
+  dihedra_settle(a);
+  return dihedra_serial_size(a->h);
+}
 
 void dihedra_write(void *s, unsigned char *out, const char *) {
-  const DihedraAgg *a = static_cast<const DihedraAgg *>(s);
+  DihedraAgg *a = static_cast<DihedraAgg *>(s);
+  dihedra_settle(a);
   guarded([&] { write_dihedra_state(a->h, a->counts, out); });
 }
 
@@ -489,10 +508,11 @@ STRIAE_FUNCTION(right_dihedra_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
+  dihedra_settle(b);
   if (a == nullptr) {
     guarded([&] { dihedra_validate(b->h, b->counts); });
     a = dihedra_new(ctx, b->h);
-    std::memcpy(a, b, dihedra_size(b));
+    std::memcpy(a->counts, b->counts, sizeof(int64_t) * static_cast<Size>(b->h.node_count));
     PG_RETURN_POINTER(a);
   }
   PG_RETURN_POINTER(dihedra_combine_states(ctx, a, b, "right_dihedra_combine"));
@@ -510,8 +530,10 @@ STRIAE_FUNCTION(right_dihedra_deserialize) {
 
 // NULL for an empty group (or only NULL rows).
 STRIAE_FUNCTION(right_dihedra_final) {
-  const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
-  if (a == nullptr || a->h.data_count == 0) PG_RETURN_NULL();
+  DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
+  if (a == nullptr) PG_RETURN_NULL();
+  dihedra_settle(a);
+  if (a->h.data_count == 0) PG_RETURN_NULL();
   guarded([&] { dihedra_validate(a->h, a->counts); });
   GridDatum *g = grid_alloc(GridKind::RightDihedra, a->h.spacing, a->h.data_count, a->h.node_count);
   guarded([&] { dihedra_finalise(a->h, a->counts, g->values); });
