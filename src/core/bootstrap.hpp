@@ -24,12 +24,15 @@
 //
 // Memory and time: data are caller-owned; at most kMaxBootstrapData data.
 // The linear bootstrap precomputes each datum's 20 normal-equation terms once
-// (160 bytes per datum) and counts multiplicities (4 bytes per datum), then a
-// resample costs N draws plus N x 20 multiply-adds; per resample it keeps 11
-// doubles. So about 164 bytes per datum plus 88 bytes per resample: 164 MB at
-// the data bound. The focal bootstrap needs no table (it recomputes terms as the
-// picks change): 6 bytes per datum plus 88 per resample, but costs a few
-// iterations of the joint inversion per resample.
+// (160 bytes per datum) and draws B resamples at a time as multiplicities in
+// doubles (8 B bytes per datum; B = 16, fewer above 65,536 data so that they stay
+// within 8 MB, at least 2), then sums the B resamples' weighted terms in one pass
+// (kernels.hpp); a resample costs N draws plus N x 20 multiply-adds; per resample
+// it keeps 11 doubles. So at most about 300 bytes per datum plus 88 bytes per
+// resample: 176 MB at the data bound. The focal bootstrap computes both planes'
+// terms once (320 bytes per datum) and reuses them in every iteration of every
+// resample: 326 bytes per datum plus 88 per resample; it costs a few iterations of
+// the joint inversion per resample.
 #pragma once
 
 #include "kernels.hpp"

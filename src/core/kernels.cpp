@@ -15,7 +15,9 @@
 
 // The helpers below pass vectors by value; they are always inlined into the
 // function of their own target, so no call with a wider-vector ABI exists.
-#if defined(__GNUC__) && !defined(__clang__)
+#if defined(__clang__)
+#pragma clang diagnostic ignored "-Wpsabi"
+#elif defined(__GNUC__)
 #pragma GCC diagnostic ignored "-Wpsabi"
 #endif
 

@@ -215,3 +215,34 @@ TEST(BootstrapSums, WeightsOfOneSumToTheAggregateSums) {
     EXPECT_EQ(out, sums) << simd_path_name(p);
   }
 }
+
+TEST(FocalBootstrapTerms, PrecomputedTermsGiveTheSameInversionToTheBit) {
+  // The focal bootstrap computes both planes' terms once and hands them to
+  // focal_fixed_friction; without them it recomputes the terms per iteration.
+  const std::vector<SlipDatum> data = random_faults(300, 16);
+  const size_t n = data.size();
+  std::vector<double> terms(n * 40);
+  for (size_t i = 0; i < n; ++i) {
+    stress_contribution(data[i].n, data[i].u, &terms[40 * i]);
+    stress_contribution(data[i].u, data[i].n, &terms[40 * i + 20]);
+  }
+  Rng rng(3);
+  std::vector<uint32_t> mult(n, 0);
+  for (size_t k = 0; k < n; ++k) ++mult[rng.below(static_cast<uint32_t>(n))];
+  for (const uint32_t *w : {static_cast<const uint32_t *>(nullptr), static_cast<const uint32_t *>(mult.data())}) {
+    std::vector<uint8_t> pa(n), pb(n);
+    StressTensor ta, tb;
+    std::memset(&ta, 0, sizeof ta);
+    std::memset(&tb, 0, sizeof tb);
+    double sa, sb;
+    int32_t ia, ib;
+    const StressStatus a = focal_fixed_friction(data.data(), n, w, 0.6, pa.data(), ta, sa, ia);
+    const StressStatus b = focal_fixed_friction(data.data(), n, w, 0.6, pb.data(), tb, sb, ib, terms.data());
+    ASSERT_EQ(a, StressStatus::Ok);
+    EXPECT_EQ(a, b);
+    EXPECT_EQ(std::memcmp(&ta, &tb, sizeof ta), 0);
+    EXPECT_EQ(sa, sb);
+    EXPECT_EQ(ia, ib);
+    EXPECT_EQ(pa, pb);
+  }
+}
