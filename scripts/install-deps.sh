@@ -17,6 +17,7 @@ PACKAGES=(
   python3-matplotlib                # baseline of the figure benchmark
   postgresql-15-postgis-3           # the companion extension striae_gis requires PostGIS
   gdal-bin python3-pyproj           # GIS client (ogr2ogr) and geodesic reference (pyproj.Geod)
+  libopenblas0-pthread python3-threadpoolctl   # numpy references of the benchmarks run on OpenBLAS
 )
 
 missing=()

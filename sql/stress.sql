@@ -111,6 +111,15 @@ SELECT stress_inversion(fs) IS NULL AS too_few, stress_inversion(fs, 10, 1) IS N
 SELECT stress_inversion(f) IS NULL AS parallel_faults
   FROM (VALUES ('030/60/10'::fault_slip), ('030/60/10'), ('030/60/10'), ('030/60/10'), ('030/60/10')) v(f);
 SELECT right_dihedra(fs, 10) IS NULL AS empty FROM stress_slips WHERE false;
+-- right_dihedra counts rows in blocks of 64 (kernels.hpp); a running (window)
+-- aggregate calls the final function mid-stream, which counts the pending block,
+-- and the state goes on: the grid at row k must be the grid of rows 1..k
+-- (derived), across block boundaries (63, 64, 65, 128).
+CREATE TEMP TABLE rd_run AS
+  SELECT i, fault_slip((i * 37) % 360, 10 + (i * 13) % 80, (i * 53) % 360 - 180) AS f FROM generate_series(1, 150) i;
+SELECT k, grid_data_count(r) AS n, r::text = (SELECT right_dihedra(f, 5) FROM rd_run WHERE i <= k)::text AS same
+  FROM (SELECT i AS k, right_dihedra(f, 5) OVER (ORDER BY i) AS r FROM rd_run) w
+ WHERE k IN (1, 63, 64, 65, 128, 150) ORDER BY k;
 SELECT stress_inversion(f) IS NULL AS all_null FROM (VALUES (NULL::fault_slip), (NULL)) v(f);
 
 -- error paths

@@ -24,14 +24,18 @@
 //
 // Memory and time: data are caller-owned; at most kMaxBootstrapData data.
 // The linear bootstrap precomputes each datum's 20 normal-equation terms once
-// (160 bytes per datum) and counts multiplicities (4 bytes per datum), then a
-// resample costs N draws plus N x 20 multiply-adds; per resample it keeps 11
-// doubles. So about 164 bytes per datum plus 88 bytes per resample: 164 MB at
-// the data bound. The focal bootstrap needs no table (it recomputes terms as the
-// picks change): 6 bytes per datum plus 88 per resample, but costs a few
-// iterations of the joint inversion per resample.
+// (160 bytes per datum) and draws B resamples at a time as multiplicities in
+// doubles (8 B bytes per datum; B = 16, fewer above 65,536 data so that they stay
+// within 8 MB, at least 2), then sums the B resamples' weighted terms in one pass
+// (kernels.hpp); a resample costs N draws plus N x 20 multiply-adds; per resample
+// it keeps 11 doubles. So at most about 300 bytes per datum plus 88 bytes per
+// resample: 176 MB at the data bound. The focal bootstrap computes both planes'
+// terms once (320 bytes per datum) and reuses them in every iteration of every
+// resample: 326 bytes per datum plus 88 per resample; it costs a few iterations of
+// the joint inversion per resample.
 #pragma once
 
+#include "kernels.hpp"
 #include "stress.hpp"
 
 #include <cstdint>
@@ -89,6 +93,15 @@ inline uint32_t Rng::below(uint32_t bound) {
   }
   return static_cast<uint32_t>(m >> 32);
 }
+
+// The resampled normal equations of a batch of the linear bootstrap: draws nres
+// resamples of count data from rng (count draws each, in stream order, as
+// multiplicities in w, nres x count doubles of scratch), then out[r*20 + k] =
+// sum over i in data order of w[r][i] * table[i*20 + k] (weighted_term_sums,
+// kernels.hpp: bit-identical on every path to summing one resample at a time).
+// table holds each datum's 20 terms (stress_contribution). count >= 1.
+void bootstrap_batch_sums(Rng &rng, const double *table, size_t count, int nres, double *w, double *out,
+                          SimdPath path = simd_best_path());
 
 struct BootstrapOptions {
   int32_t resamples = 1000;  // 1 .. kMaxResamples

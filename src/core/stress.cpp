@@ -614,7 +614,7 @@ void check_friction_range(const FrictionRange &f) {
 // Steps 1-3 of the joint inversion at one friction value.
 StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uint32_t *weight,
                                   double mu, uint8_t *picked, StressTensor &out, double &score,
-                                  int32_t &iterations) {
+                                  int32_t &iterations, const double *terms) {
   check_friction(mu);
   iterations = 0;
   score = 0.0;
@@ -629,14 +629,21 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
 
   // Step 1: both nodal planes of every mechanism.
   double sums[20] = {0};
-  double c[20];
+  double buf[20];
+  // Terms of datum i's given plane (aux = false) or auxiliary plane (aux = true).
+  auto term = [&](size_t i, bool aux) -> const double * {
+    if (terms) return terms + 40 * i + (aux ? 20 : 0);
+    if (aux) stress_contribution(data[i].u, data[i].n, buf);
+    else stress_contribution(data[i].n, data[i].u, buf);
+    return buf;
+  };
   for (size_t i = 0; i < count; ++i) {
     poll_every(i);
     const double wi = w(i);
     if (wi == 0) continue;
-    stress_contribution(data[i].n, data[i].u, c);
+    const double *c = term(i, false);
     for (int k = 0; k < 20; ++k) sums[k] += wi * c[k];
-    stress_contribution(data[i].u, data[i].n, c);
+    c = term(i, true);
     for (int k = 0; k < 20; ++k) sums[k] += wi * c[k];
   }
   StressStatus st = stress_solve(sums, 2.0 * wsum, n_mech, out);
@@ -649,8 +656,7 @@ StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uin
       poll_every(i);
       const double wi = w(i);
       if (wi == 0) continue;
-      if (p[i]) stress_contribution(data[i].u, data[i].n, c);
-      else stress_contribution(data[i].n, data[i].u, c);
+      const double *c = term(i, p[i] != 0);
       for (int k = 0; k < 20; ++k) sums[k] += wi * c[k];
     }
     return stress_solve(sums, wsum, n_mech, t);

@@ -351,9 +351,13 @@ static_assert(std::is_trivially_copyable<FocalInversion>::value, "plain result")
 // sum of the weights. score receives the mean instability (weighted) of the
 // picked planes; iterations the re-inversions done; the tensor's flags carry
 // kStressNotConverged when the limit was hit. No misfit is computed here.
+// terms, if given, holds 40 doubles per datum: stress_contribution(n, u) then
+// stress_contribution(u, n); they are used instead of recomputing the terms at
+// every iteration (the bootstrap computes them once for all its resamples), with
+// the same values and sums, so the result is the same to the bit.
 StressStatus focal_fixed_friction(const SlipDatum *data, size_t count, const uint32_t *weight,
                                   double mu, uint8_t *picked, StressTensor &out, double &score,
-                                  int32_t &iterations);
+                                  int32_t &iterations, const double *terms = nullptr);
 
 // Joint inversion of count mechanisms (caller-owned data). picked (count bytes,
 // caller-owned, written on Ok) receives 0 where the given plane (n, u) is taken as

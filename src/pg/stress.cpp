@@ -11,6 +11,7 @@
 
 #include "../core/bootstrap.hpp"
 #include "../core/dihedra.hpp"
+#include "../core/kernels.hpp"
 #include "../core/stress.hpp"
 #include "../core/stress_text.hpp"
 
@@ -385,17 +386,23 @@ STRIAE_FUNCTION(stress_inversion_final) {
 // ---- right_dihedra(fault_slip, spacing) (Angelier & Mechler 1977) ------------------------------
 //
 // State: DihedraHeader followed by node_count int64 counts, one palloc chunk in
-// the aggregate context. The node table depends only on the spacing and is kept
-// per backend, for up to kNodeCacheSpacings spacings and kNodeCacheBytes in all,
-// the least recently used dropped first: two right_dihedra of different spacings
-// in one query take turns row by row, and a cache of one spacing rebuilt the
-// table on every row (30 to 110 times slower than running them apart).
+// the aggregate context, and a block of pending rows (kernels.hpp), a second
+// chunk allocated with the state. Rows are copied into the block and counted a
+// block at a time; everything that reads the counts (combine, the serialized
+// size and bytes of kDihedraOps, final) flushes the block first, so serialized
+// states and partial_state values hold counts only. The node table depends only
+// on the spacing and is kept per backend, for up to kNodeCacheSpacings spacings
+// and kNodeCacheBytes in all, the least recently used dropped first: two
+// right_dihedra of different spacings in one query take turns row by row, and a
+// cache of one spacing rebuilt the table on every row (30 to 110 times slower
+// than running them apart).
 
 namespace {
 
 struct DihedraAgg {
   StateTag tag;  // StateKind::RightDihedra
   DihedraHeader h;
+  DihedraBlock *block;  // pending rows, counted into counts when full or flushed
   int64_t counts[FLEXIBLE_ARRAY_MEMBER];
 };
 static_assert(std::is_trivially_destructible<DihedraHeader>::value, "palloc'd state");
@@ -405,11 +412,8 @@ DihedraAgg *dihedra_new(MemoryContext ctx, const DihedraHeader &h) {
   DihedraAgg *a = static_cast<DihedraAgg *>(MemoryContextAllocZero(ctx, size));
   a->tag = state_tag(StateKind::RightDihedra);
   a->h = h;
+  a->block = static_cast<DihedraBlock *>(MemoryContextAllocZero(ctx, sizeof(DihedraBlock)));
   return a;
-}
-
-Size dihedra_size(const DihedraAgg *a) {
-  return offsetof(DihedraAgg, counts) + sizeof(int64_t) * static_cast<Size>(a->h.node_count);
 }
 
 constexpr int kNodeCacheSpacings = 8;
@@ -477,6 +481,14 @@ DihedraAgg *dihedra_state(FunctionCallInfo fcinfo, int k, const char *fn) {
   return state_arg<DihedraAgg>(fcinfo, k, fn, StateKind::RightDihedra);
 }
 
+// Count the pending rows, so that counts and data_count are the state's value
+// (the value does not change: rows move from the block into the counts).
+void dihedra_settle(DihedraAgg *a) {
+  if (a->block->rows == 0) return;
+  const double *nodes = dihedra_nodes(a->h.spacing);
+  guarded([&] { dihedra_flush(a->h, a->counts, nodes, *a->block); });
+}
+
 [[noreturn]] void dihedra_spacing_mismatch() {
   ereport(ERROR, (errcode(ERRCODE_INVALID_PARAMETER_VALUE),
                   errmsg("right_dihedra spacing must be the same for every row of a group")));
@@ -500,7 +512,7 @@ STRIAE_FUNCTION(right_dihedra_accum) {
   if (PG_ARGISNULL(1)) PG_RETURN_POINTER(a);
   const SlipDatum d = slip_datum(fcinfo, 1);
   const double *nodes = dihedra_nodes(a->h.spacing);
-  guarded([&] { dihedra_add(a->h, a->counts, nodes, d.n, d.u); });
+  guarded([&] { dihedra_push(a->h, a->counts, nodes, *a->block, d.n, d.u); });
   PG_RETURN_POINTER(a);
 }
 
@@ -515,8 +527,10 @@ void *dihedra_read(MemoryContext ctx, const unsigned char *p, size_t len, const 
 
 void *dihedra_combine_states(MemoryContext, void *into, void *from, const char *) {
   DihedraAgg *a = static_cast<DihedraAgg *>(into);
-  const DihedraAgg *b = static_cast<const DihedraAgg *>(from);
+  DihedraAgg *b = static_cast<DihedraAgg *>(from);
   if (a->h.spacing != b->h.spacing) dihedra_spacing_mismatch();
+  dihedra_settle(a);
+  dihedra_settle(b);
   guarded([&] {
     dihedra_validate(a->h, a->counts);
     dihedra_validate(b->h, b->counts);
@@ -525,10 +539,15 @@ void *dihedra_combine_states(MemoryContext, void *into, void *from, const char *
   return a;
 }
 
-size_t dihedra_bytes(void *s, const char *) { return dihedra_serial_size(static_cast<DihedraAgg *>(s)->h); }
+size_t dihedra_bytes(void *s, const char *) {
+  DihedraAgg *a = static_cast<DihedraAgg *>(s);
+  dihedra_settle(a);
+  return dihedra_serial_size(a->h);
+}
 
 void dihedra_write(void *s, unsigned char *out, const char *) {
-  const DihedraAgg *a = static_cast<const DihedraAgg *>(s);
+  DihedraAgg *a = static_cast<DihedraAgg *>(s);
+  dihedra_settle(a);
   guarded([&] { write_dihedra_state(a->h, a->counts, out); });
 }
 
@@ -542,10 +561,11 @@ STRIAE_FUNCTION(right_dihedra_combine) {
     if (a == nullptr) PG_RETURN_NULL();
     PG_RETURN_POINTER(a);
   }
+  dihedra_settle(b);
   if (a == nullptr) {
     guarded([&] { dihedra_validate(b->h, b->counts); });
     a = dihedra_new(ctx, b->h);
-    std::memcpy(a, b, dihedra_size(b));
+    std::memcpy(a->counts, b->counts, sizeof(int64_t) * static_cast<Size>(b->h.node_count));
     PG_RETURN_POINTER(a);
   }
   PG_RETURN_POINTER(dihedra_combine_states(ctx, a, b, "right_dihedra_combine"));
@@ -563,11 +583,12 @@ STRIAE_FUNCTION(right_dihedra_deserialize) {
 
 // NULL for an empty group (or only NULL rows).
 STRIAE_FUNCTION(right_dihedra_final) {
-  const DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
+  DihedraAgg *a = dihedra_state(fcinfo, 0, "right_dihedra_final");
   if (a == nullptr) {
     check_empty_group_params(fcinfo);  // the spacing, as the first row would check it
     PG_RETURN_NULL();
   }
+  dihedra_settle(a);
   if (a->h.data_count == 0) PG_RETURN_NULL();
   guarded([&] { dihedra_validate(a->h, a->counts); });
   GridDatum *g = grid_alloc(GridKind::RightDihedra, a->h.spacing, a->h.data_count, a->h.node_count);
