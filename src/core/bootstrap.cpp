@@ -174,13 +174,18 @@ void set_misfit(const SlipDatum *data, size_t count, StressTensor &t) {
 // Linear inversion
 // ---------------------------------------------------------------------------
 
-// Draws of a batch, then its sums in one pass over the table.
-void bootstrap_batch_sums(Rng &rng, const double *table, size_t count, int nres, double *w, double *out,
-                          SimdPath path) {
+// Draws of nres resamples (count each, in stream order) as multiplicities.
+void bootstrap_draws(Rng &rng, size_t count, int nres, double *w) {
   for (int b = 0; b < nres; ++b) {
     poll_interrupts();  // each resample's draws: up to 10^6, about 2 ms
     draw(rng, w + static_cast<size_t>(b) * count, count);
   }
+}
+
+// Draws of a batch, then its sums in one pass over the table.
+void bootstrap_batch_sums(Rng &rng, const double *table, size_t count, int nres, double *w, double *out,
+                          SimdPath path) {
+  bootstrap_draws(rng, count, nres, w);
   weighted_term_sums(path, table, count, w, count, nres, out);
 }
 
@@ -210,21 +215,29 @@ StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const Bootstr
   // Resamples in batches: the draws of a batch (in stream order, so the same
   // seed gives the same resamples) as multiplicities, then the batch's weighted
   // sums in one pass over the table (kernels.hpp: each sum in data order, so
-  // every resample's sums are bit-identical to summing it alone).
+  // every resample's sums are bit-identical to summing it alone). The draws of
+  // the next batch are made during that pass (weighted_term_sums_drawing): same
+  // draws, same sums, in about the time of the draws alone.
   Rng rng(opt.seed);
   const int total = opt.resamples;
   const int batch = bootstrap_batch(count, total);
-  std::vector<double> w(static_cast<size_t>(batch) * count);
+  std::vector<double> w(static_cast<size_t>(batch) * count), w_next(w.size());
   std::vector<double> sums_batch(static_cast<size_t>(batch) * 20);
   std::vector<Resample> rs(static_cast<size_t>(total));
+  const SimdPath path = simd_best_path();
+  bootstrap_draws(rng, count, batch, w.data());
   for (int r0 = 0; r0 < total; r0 += batch) {
     const int nb = std::min(batch, total - r0);
-    bootstrap_batch_sums(rng, table.data(), count, nb, w.data(), sums_batch.data());
+    const int nb_next = std::min(batch, std::max(0, total - r0 - nb));
+    std::fill(w_next.begin(), w_next.begin() + static_cast<ptrdiff_t>(nb_next * count), 0.0);
+    weighted_term_sums_drawing(path, table.data(), count, w.data(), count, nb, sums_batch.data(), rng,
+                               w_next.data(), nb_next);
     for (int b = 0; b < nb; ++b) {
       StressTensor t;
       const StressStatus rst = stress_solve(&sums_batch[static_cast<size_t>(b) * 20], static_cast<double>(count), n, t);
       rs[static_cast<size_t>(r0 + b)] = record(rst, t, out);
     }
+    w.swap(w_next);
   }
   summarise(rs, opt.level, out);
   return StressStatus::Ok;

@@ -21,6 +21,8 @@
 #pragma GCC diagnostic ignored "-Wpsabi"
 #endif
 
+#include <immintrin.h>
+
 #include <algorithm>
 #include <cstring>
 
@@ -109,6 +111,17 @@ KERNEL_INLINE V splat(double s) {
   return v;
 }
 
+// Every lane = *p, loaded once: one broadcast load (vbroadcastsd) on the wide
+// paths, where the element-wise splat above compiles to a load and two
+// shuffles. Same bits either way.
+KERNEL_INLINE D2 splat_load(const double *p, D2) { return splat<D2>(*p); }
+__attribute__((target("avx2"))) inline D4 splat_load(const double *p, D4) {
+  return reinterpret_cast<D4>(_mm256_broadcast_sd(p));
+}
+__attribute__((target("avx512f"))) inline D8 splat_load(const double *p, D8) {
+  return reinterpret_cast<D8>(_mm512_set1_pd(*p));
+}
+
 // ---------------------------------------------------------------------------
 // Right dihedra
 // ---------------------------------------------------------------------------
@@ -149,8 +162,8 @@ KERNEL_INLINE void dihedra_tile(const double *x, const double *y, const double *
   const double *n0 = b.v[0], *n1 = b.v[1], *n2 = b.v[2], *u0 = b.v[3], *u1 = b.v[4], *u2 = b.v[5];
   const int32_t rows = b.rows;
   for (int32_t r = 0; r < rows; ++r) {
-    const V N0 = splat<V>(n0[r]), N1 = splat<V>(n1[r]), N2 = splat<V>(n2[r]);
-    const V U0 = splat<V>(u0[r]), U1 = splat<V>(u1[r]), U2 = splat<V>(u2[r]);
+    const V N0 = splat_load(&n0[r], V{}), N1 = splat_load(&n1[r], V{}), N2 = splat_load(&n2[r], V{});
+    const V U0 = splat_load(&u0[r], V{}), U1 = splat_load(&u1[r], V{}), U2 = splat_load(&u2[r], V{});
     UNROLL
     for (int t = 0; t < T; ++t) {
       const V a = X[t] * N0 + Y[t] * N1 + Z[t] * N2;
@@ -205,10 +218,45 @@ __attribute__((target("avx512f,avx512dq"))) void dihedra_avx512(const double *no
 constexpr int kTerms = 20;          // per datum: 15 of A^T A, 5 of A^T u (stress.hpp)
 constexpr size_t kSumBlock = 128;   // data per block: 20 KB of terms, kept in L1
 
-// R resamples over data [i0, i1): acc(r) = acc(r) + w(r, i) * t(i), i in order.
-template <class V, int R>
+// No draws beside the sums.
+struct NoDraws {
+  KERNEL_INLINE void step() {}
+};
+
+// Draws beside the sums (weighted_term_sums_drawing): a local copy of the
+// generator, so that its state stays in registers; one draw per step until
+// every resample has its count draws. Exact: the pass has exactly as many
+// steps as draws to make (the next batch is as large as this one), so the
+// check for the end of the draws is left out of the loop.
+template <bool Exact>
+struct Draws {
+  Rng rng;
+  double *w;           // the current resample's multiplicities
+  size_t stride;
+  uint32_t n;          // draws per resample, and their bound
+  uint32_t left;       // draws left in the current resample
+  int resamples;       // resamples left, the current one included
+  KERNEL_INLINE void step() {
+    if (!Exact && resamples == 0) return;
+    w[rng.below(n)] += 1.0;
+    if (--left == 0) {
+      w += stride;
+      left = n;
+      --resamples;
+    }
+  }
+};
+
+template <class D>
+struct IsDraws : std::false_type {};
+template <bool E>
+struct IsDraws<Draws<E>> : std::true_type {};
+
+// R resamples over data [i0, i1): acc(r) = acc(r) + w(r, i) * t(i), i in order;
+// R draws per datum beside them.
+template <class V, int R, class D>
 KERNEL_INLINE void wsum_pass(const double *table, size_t i0, size_t i1, const double *w, size_t stride,
-                             double *out) {
+                             double *out, D &draws) {
   constexpr int L = lanes<V>(), NV = kTerms / L;
   static_assert(kTerms % L == 0, "terms fill whole vectors");
   V acc[R][NV];
@@ -220,10 +268,12 @@ KERNEL_INLINE void wsum_pass(const double *table, size_t i0, size_t i1, const do
   for (size_t i = i0; i < i1; ++i, c += kTerms) {
     UNROLL
     for (int r = 0; r < R; ++r) {
-      const V s = splat<V>(w[r * stride + i]);
+      const V s = splat_load(&w[r * stride + i], V{});
       UNROLL
       for (int v = 0; v < NV; ++v) acc[r][v] = acc[r][v] + s * load<V>(c + v * L);
     }
+    UNROLL
+    for (int r = 0; r < R; ++r) draws.step();
   }
   UNROLL
   for (int r = 0; r < R; ++r)
@@ -231,27 +281,50 @@ KERNEL_INLINE void wsum_pass(const double *table, size_t i0, size_t i1, const do
     for (int v = 0; v < NV; ++v) store<V>(out + r * kTerms + v * L, acc[r][v]);
 }
 
-template <class V, int R>
+template <class V, int R, class D>
 KERNEL_INLINE void wsum_kernel(const double *table, size_t count, const double *w, size_t stride, int nres,
-                               double *out) {
+                               double *out, D &draws_in) {
+  D draws = draws_in;  // in registers, not behind a reference
   std::fill(out, out + static_cast<size_t>(nres) * kTerms, 0.0);
   for (size_t i0 = 0; i0 < count; i0 += kSumBlock) {
     poll_interrupts();
     const size_t i1 = std::min(count, i0 + kSumBlock);
     int r = 0;
     for (; r + R <= nres; r += R)
-      wsum_pass<V, R>(table, i0, i1, w + static_cast<size_t>(r) * stride, stride, out + r * kTerms);
-    for (; r < nres; ++r) wsum_pass<V, 1>(table, i0, i1, w + static_cast<size_t>(r) * stride, stride, out + r * kTerms);
+      wsum_pass<V, R>(table, i0, i1, w + static_cast<size_t>(r) * stride, stride, out + r * kTerms, draws);
+    for (; r < nres; ++r)
+      wsum_pass<V, 1>(table, i0, i1, w + static_cast<size_t>(r) * stride, stride, out + r * kTerms, draws);
   }
+  // Draws the sums did not cover (a next batch larger than this one).
+  if constexpr (IsDraws<D>::value) {
+    while (draws.resamples > 0) {
+      poll_interrupts();
+      for (uint32_t k = draws.left; k > 0; --k) draws.step();
+    }
+  }
+  draws_in = draws;
 }
 
-void wsum_baseline(const double *table, size_t count, const double *w, size_t stride, int nres, double *out) {
-  wsum_kernel<D2, 1>(table, count, w, stride, nres, out);
+template <class D>
+void wsum_baseline(const double *table, size_t count, const double *w, size_t stride, int nres, double *out,
+                   D &draws) {
+  wsum_kernel<D2, 1>(table, count, w, stride, nres, out, draws);
 }
 
-__attribute__((target("avx2"))) void wsum_avx2(const double *table, size_t count, const double *w,
-                                               size_t stride, int nres, double *out) {
-  wsum_kernel<D4, 2>(table, count, w, stride, nres, out);
+template <class D>
+__attribute__((target("avx2"))) void wsum_avx2(const double *table, size_t count, const double *w, size_t stride,
+                                               int nres, double *out, D &draws) {
+  wsum_kernel<D4, 2>(table, count, w, stride, nres, out, draws);
+}
+
+template <class D>
+void wsum(SimdPath path, const double *table, size_t count, const double *w, size_t stride, int nres, double *out,
+          D &draws) {
+  require(path);
+  // No 512-bit variant: 20 terms do not fill 8-lane vectors, and two 256-bit
+  // sums in flight already keep this machine's adders busy.
+  if (path == SimdPath::Baseline) wsum_baseline(table, count, w, stride, nres, out, draws);
+  else wsum_avx2(table, count, w, stride, nres, out, draws);
 }
 
 }  // namespace
@@ -290,11 +363,23 @@ void dihedra_flush(DihedraHeader &h, int64_t *counts, const double *nodes, Dihed
 
 void weighted_term_sums(SimdPath path, const double *table, size_t count, const double *w, size_t stride,
                         int nres, double *out) {
-  require(path);
-  // No 512-bit variant: 20 terms do not fill 8-lane vectors, and two 256-bit
-  // sums in flight already keep this machine's adders busy.
-  if (path == SimdPath::Baseline) wsum_baseline(table, count, w, stride, nres, out);
-  else wsum_avx2(table, count, w, stride, nres, out);
+  NoDraws none;
+  wsum(path, table, count, w, stride, nres, out, none);
+}
+
+void weighted_term_sums_drawing(SimdPath path, const double *table, size_t count, const double *w, size_t stride,
+                                int nres, double *out, Rng &rng, double *w_next, int next_nres) {
+  const int next = count == 0 ? 0 : std::max(next_nres, 0);
+  const uint32_t n = static_cast<uint32_t>(count);
+  if (next == nres) {
+    Draws<true> d{rng, w_next, stride, n, n, next};
+    wsum(path, table, count, w, stride, nres, out, d);
+    rng = d.rng;
+  } else {
+    Draws<false> d{rng, w_next, stride, n, n, next};
+    wsum(path, table, count, w, stride, nres, out, d);
+    rng = d.rng;
+  }
 }
 
 void weighted_term_sums(const double *table, size_t count, const double *w, size_t stride, int nres,

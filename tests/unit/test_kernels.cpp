@@ -120,6 +120,33 @@ TEST(DihedraKernel, EqualsTheScalarPathOnNodalPlanes) {
   }
 }
 
+TEST(DihedraKernel, ProductsExactlyAtTheToleranceAreOnThePlane) {
+  // The on-plane rule (dihedra.hpp): a node whose product a*c lies within
+  // kDihedraOnPlane of zero, both ends included, counts half (1 in half-data
+  // units); below -kDihedraOnPlane it is compressional (2), above extensional (0).
+  // One node (1, 0, 0) and rows n = (p, 0, 0), u = (1, 0, 0) give a*c = p exactly.
+  const double tol = kDihedraOnPlane;
+  const struct {
+    double p;
+    int64_t half_units;
+  } cases[] = {{std::nextafter(-tol, -1.0), 2}, {-tol, 1}, {0.0, 1}, {tol, 1}, {std::nextafter(tol, 1.0), 0},
+               {-0.5, 2}, {0.5, 0}};
+  const double node[3] = {1.0, 0.0, 0.0};
+  for (SimdPath path : kAllPaths) {
+    if (!simd_path_supported(path)) continue;
+    for (const auto &c : cases) {
+      DihedraBlock b;
+      std::memset(&b, 0, sizeof b);
+      b.v[0][0] = c.p;
+      b.v[3][0] = 1.0;
+      b.rows = 1;
+      int64_t count = 0;
+      dihedra_count_block(path, node, 1, b, &count);
+      EXPECT_EQ(count, c.half_units) << simd_path_name(path) << " a*c = " << c.p;
+    }
+  }
+}
+
 TEST(DihedraKernel, EqualsTheScalarPathOnRandomData) {
   // 1000 data: 15 full blocks and a partial one; 5 degrees: 826 nodes, a partial tile.
   const std::vector<SlipDatum> data = random_faults(1000, 11);
@@ -244,5 +271,39 @@ TEST(FocalBootstrapTerms, PrecomputedTermsGiveTheSameInversionToTheBit) {
     EXPECT_EQ(sa, sb);
     EXPECT_EQ(ia, ib);
     EXPECT_EQ(pa, pb);
+  }
+}
+
+TEST(BootstrapSums, DrawingTheNextBatchDuringTheSumsChangesNothing) {
+  // weighted_term_sums_drawing: the sums of one batch equal weighted_term_sums
+  // bit for bit, the next batch's multiplicities equal drawing them alone, and
+  // the generator ends where drawing alone leaves it; for a next batch as large
+  // as this one (the exact pass), smaller (the last batch), empty and larger.
+  const std::vector<SlipDatum> data = random_faults(333, 17);
+  const size_t n = data.size();
+  std::vector<double> table(n * 20);
+  for (size_t i = 0; i < n; ++i) stress_contribution(data[i].n, data[i].u, &table[i * 20]);
+  const int cur = 5;
+  for (const int next : {5, 2, 0, 7}) {
+    for (SimdPath p : kAllPaths) {
+      if (!simd_path_supported(p)) continue;
+      // Alone: draw this batch, sum it, then draw the next one.
+      Rng a(123 + static_cast<uint64_t>(next));
+      std::vector<double> wa(cur * n), outa(cur * 20), wa_next(next * n + 1, 0.0);
+      bootstrap_batch_sums(a, table.data(), n, cur, wa.data(), outa.data(), p);
+      for (int r = 0; r < next; ++r)
+        for (size_t k = 0; k < n; ++k) wa_next[r * n + a.below(static_cast<uint32_t>(n))] += 1.0;
+      // Together.
+      Rng b(123 + static_cast<uint64_t>(next));
+      std::vector<double> wb(cur * n, 0.0), outb(cur * 20), wb_next(next * n + 1, 0.0);
+      for (int r = 0; r < cur; ++r)
+        for (size_t k = 0; k < n; ++k) wb[r * n + b.below(static_cast<uint32_t>(n))] += 1.0;
+      weighted_term_sums_drawing(p, table.data(), n, wb.data(), n, cur, outb.data(), b, wb_next.data(), next);
+      EXPECT_EQ(wa, wb) << simd_path_name(p) << " next " << next;
+      EXPECT_EQ(std::memcmp(outa.data(), outb.data(), sizeof(double) * outa.size()), 0)
+          << simd_path_name(p) << " next " << next;
+      EXPECT_EQ(wa_next, wb_next) << simd_path_name(p) << " next " << next;
+      EXPECT_EQ(a.next(), b.next()) << simd_path_name(p) << " next " << next;
+    }
   }
 }
