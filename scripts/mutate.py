@@ -56,7 +56,7 @@ DEPS = os.path.join(WORK, "deps")
 MUTANTS = os.path.join(ROOT, "tests", "mutation", "mutants.txt")
 
 # What the copy of the tree holds (build products are never copied over).
-SYNC_ENTRIES = ["Makefile", "striae.control", "src", "sql", "expected", "tests", "scripts", "python"]
+SYNC_ENTRIES = ["Makefile", "striae.control", "striae_gis.control", "src", "sql", "expected", "tests", "scripts", "python"]
 SKIP_SUFFIXES = (".o", ".so", ".bc", ".pyc")
 SKIP_DIRS = {"__pycache__", "build", "results"}
 
