@@ -46,15 +46,6 @@ def unit(v):
     return v / np.linalg.norm(v, axis=-1, keepdims=True)
 
 
-def fault_vectors(strike, dip, rake):
-    """(n, u) of Aki & Richards (1980), METHODS.md section 1."""
-    f, d, r = np.radians(strike), np.radians(dip), np.radians(rake)
-    sf, cf, sd, cd, sr, cr = np.sin(f), np.cos(f), np.sin(d), np.cos(d), np.sin(r), np.cos(r)
-    n = np.stack([-sd * sf, sd * cf, -cd], axis=-1)
-    u = np.stack([cr * cf + sr * cd * sf, cr * sf - sr * cd * cf, -sr * sd], axis=-1)
-    return n, u
-
-
 def strike_dip_rake(n, u):
     if n[2] > 0:
         n, u = -n, -u
@@ -134,7 +125,7 @@ failures = []
 worst = {"components": 0.0, "cones (deg)": 0.0, "phi interval": 0.0}
 for g, (name, _, m, seed) in enumerate(groups):
     sdr = np.array(stored[g])
-    n, u = fault_vectors(sdr[:, 0], sdr[:, 1], sdr[:, 2])
+    n, u = rb.fault_vectors(sdr[:, 0], sdr[:, 1], sdr[:, 2])
     n, u, gap = rb.sort_data(n, u)
     if gap < 1e-9:
         failures.append(f"[{g}] {name}: the (n, u) order is decided by {gap:.1e}; choose other data")

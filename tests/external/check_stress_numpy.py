@@ -92,15 +92,7 @@ def line_vec(trend, plunge):
     return np.stack([np.cos(p) * np.cos(t), np.cos(p) * np.sin(t), np.sin(p)], axis=-1)
 
 
-def fault_vectors(strike, dip, rake):
-    """(n, u) arrays from strike/dip/rake arrays: n = (-sin d sin f, sin d cos f,
-    -cos d), u = (cos r cos f + sin r cos d sin f, cos r sin f - sin r cos d cos f,
-    -sin r sin d) [pub: Aki & Richards 1980]."""
-    f, d, r = np.radians(strike), np.radians(dip), np.radians(rake)
-    sf, cf, sd, cd, sr, cr = np.sin(f), np.cos(f), np.sin(d), np.cos(d), np.sin(r), np.cos(r)
-    n = np.stack([-sd * sf, sd * cf, -cd], axis=-1)
-    u = np.stack([cr * cf + sr * cd * sf, cr * sf - sr * cd * cf, -sr * sd], axis=-1)
-    return n, u
+fault_vectors = rb.fault_vectors
 
 
 def strike_dip_rake(n, u):
@@ -264,19 +256,9 @@ for g, k, t, p, v in query(RD_SQL, DB):
 # ---------------------------------------------------------------------------
 
 def design(n):
-    """Stacked 3N x 5 matrix: column k of the 3 rows of datum i is the shear
-    traction on n_i of the basis tensor E_k (E1 = diag(1,0,-1), E2 = sym(1,2),
-    E3 = sym(1,3), E4 = diag(0,1,-1), E5 = sym(2,3))."""
-    basis = np.zeros((5, 3, 3))
-    basis[0] = np.diag([1.0, 0.0, -1.0])
-    basis[1][0, 1] = basis[1][1, 0] = 1.0
-    basis[2][0, 2] = basis[2][2, 0] = 1.0
-    basis[3] = np.diag([0.0, 1.0, -1.0])
-    basis[4][1, 2] = basis[4][2, 1] = 1.0
-    w = np.einsum("kab,ib->ika", basis, n)              # (N, 5, 3): E_k n
-    q = np.einsum("ika,ia->ik", w, n)                   # n . E_k n
-    a = w - q[:, :, None] * n[:, None, :]               # shear traction of E_k
-    return a.transpose(0, 2, 1).reshape(-1, 5)          # rows (i, component), columns k
+    """Stacked 3N x 5 matrix: rows (datum i, component), column k the shear
+    traction on n_i of the basis tensor E_k (ref_bootstrap.design)."""
+    return rb.design(n).reshape(-1, 5)
 
 
 def michael(n, u):

@@ -86,7 +86,18 @@ class Xoshiro256ss:
 # Michael (1984) inversion, weighted by multiplicities
 # ---------------------------------------------------------------------------
 
-def _design(n):
+def fault_vectors(strike, dip, rake):
+    """(n, u) arrays from strike/dip/rake arrays: n = (-sin d sin f, sin d cos f,
+    -cos d), u = (cos r cos f + sin r cos d sin f, cos r sin f - sin r cos d cos f,
+    -sin r sin d) [pub: Aki & Richards 1980; METHODS.md section 1]."""
+    f, d, r = np.radians(strike), np.radians(dip), np.radians(rake)
+    sf, cf, sd, cd, sr, cr = np.sin(f), np.cos(f), np.sin(d), np.cos(d), np.sin(r), np.cos(r)
+    n = np.stack([-sd * sf, sd * cf, -cd], axis=-1)
+    u = np.stack([cr * cf + sr * cd * sf, cr * sf - sr * cd * cf, -sr * sd], axis=-1)
+    return n, u
+
+
+def design(n):
     """Stacked 3N x 5 matrix: column k of datum i's rows is the shear traction
     on n_i of the basis tensor E_k (E1 = diag(1,0,-1), E2 = sym(1,2),
     E3 = sym(1,3), E4 = diag(0,1,-1), E5 = sym(2,3))."""
@@ -173,7 +184,7 @@ def bootstrap(n, u, resamples, seed, level=0.95, keep_override=None):
     """The documented bootstrap of (n, u) already in kept order.
     Returns dict(best, cones or None, phi or None, keep, kept (resample
     numbers), distances)."""
-    a3 = _design(n)
+    a3 = design(n)
     best = michael_weighted(a3, u, np.ones(len(n)))
     if best is None:
         return None
