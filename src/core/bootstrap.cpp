@@ -217,7 +217,7 @@ StressStatus stress_bootstrap(const SlipDatum *data, size_t count, const Bootstr
   // sums in one pass over the table (kernels.hpp: each sum in data order, so
   // every resample's sums are bit-identical to summing it alone). The draws of
   // the next batch are made during that pass (weighted_term_sums_drawing): same
-  // draws, same sums, in about the time of the draws alone.
+  // draws, same sums, in a little more than the time of the draws alone.
   Rng rng(opt.seed);
   const int total = opt.resamples;
   const int batch = bootstrap_batch(count, total);

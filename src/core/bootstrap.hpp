@@ -30,10 +30,10 @@
 // this one is summed), then sums the B resamples' weighted terms in one pass
 // (kernels.hpp); a resample costs N draws plus N x 20 multiply-adds; per resample
 // it keeps 11 doubles. So at most about 420 bytes per datum (at 65,536 data; 192
-// at the data bound) plus 88 bytes per resample: about 200 MB at the data bound. The focal bootstrap computes both planes'
-// terms once (320 bytes per datum) and reuses them in every iteration of every
-// resample: 326 bytes per datum plus 88 per resample; it costs a few iterations of
-// the joint inversion per resample.
+// at the data bound) plus 88 bytes per resample: about 200 MB at the data bound.
+// The focal bootstrap computes both planes' terms once (320 bytes per datum) and
+// reuses them in every iteration of every resample: 326 bytes per datum plus 88
+// per resample; it costs a few iterations of the joint inversion per resample.
 #pragma once
 
 #include "kernels.hpp"
