@@ -238,12 +238,13 @@ std::vector<LegendEntry> legend_entries(const Figure &f, const std::vector<std::
           if (k == 0 && !l.label.empty()) s = l.label + ": " + s;
           out.push_back({Swatch::Symbol, kSigmaFill[k], sym[k], s, 1, {}});
         }
-        std::string s = std::string(kPhi) + " = " + fmt(shape_ratio(t), 2);
+        // SHmax first: the entry's swatch is the wedge that marks it on the rim.
+        const auto sh = shmax_azimuth(t);
+        std::string s = sh ? "SHmax " + fmt(*sh, 0) + kDegree + kDot : std::string();
+        s += std::string(kPhi) + " = " + fmt(shape_ratio(t), 2);
         if (t.flags & kStressHasPhiInterval) s += " [" + fmt(t.phi_lo, 2) + ", " + fmt(t.phi_hi, 2) + "]";
         if (t.data_count > 0) s += std::string(kDot) + "n = " + std::to_string(t.data_count);
         if (t.flags & kStressHasMisfit) s += std::string(kDot) + "mean misfit " + fmt(t.mean_misfit, 1) + kDegree;
-        const auto sh = shmax_azimuth(t);
-        if (sh) s += std::string(kDot) + "SHmax " + fmt(*sh, 0) + kDegree;
         out.push_back({sh ? Swatch::Wedge : Swatch::None, kInk, Symbol::Disc, s, 1, {}});
         break;
       }
