@@ -161,9 +161,26 @@ def choose_columns(path, header, args):
             "id": find(lc, ID_NAMES), "width": len(header), "header": header}
 
 
-def coordinate(text, name, lo, hi):
-    """(value, None) or (None, reason) for a longitude or latitude cell; empty is (None, None)."""
+# A number with a decimal comma ("41,25"), as spreadsheets in many locales save numbers in
+# files with a semicolon or a tab between fields. Read as a decimal point in such files
+# only, and only in numeric columns (coordinates; strike, dip and rake or pitch of the
+# numeric forms): in a comma-separated file, and in a literal (fault, mechanism, plane,
+# striation), a comma is a separator.
+DECIMAL_COMMA = re.compile(r"[+-]?[0-9]+,[0-9]+")
+NUMERIC_FORMS = {"field_book": 3, "strike_dip_rake": 3}   # how many leading data columns are numbers
+
+
+def number_text(text, decimal_comma):
+    """The cell, stripped, with a decimal comma made a point where the file allows it."""
     t = text.strip()
+    if decimal_comma and DECIMAL_COMMA.fullmatch(t):
+        return t.replace(",", ".")
+    return t
+
+
+def coordinate(text, name, lo, hi, decimal_comma=False):
+    """(value, None) or (None, reason) for a longitude or latitude cell; empty is (None, None)."""
+    t = number_text(text, decimal_comma)
     if not t:
         return None, None
     try:
@@ -301,8 +318,8 @@ def analyse(args, path, spec, records, blank):
                     problems.append((line, name, "", f"no value in the grouping column {name}"))
             lon = lat = None
             if spec["lon"] is not None:
-                lon, r1 = coordinate(fields[spec["lon"]], "longitude", -180, 180)
-                lat, r2 = coordinate(fields[spec["lat"]], "latitude", -90, 90)
+                lon, r1 = coordinate(fields[spec["lon"]], "longitude", -180, 180, spec["decimal_comma"])
+                lat, r2 = coordinate(fields[spec["lat"]], "latitude", -90, 90, spec["decimal_comma"])
                 for r, i in ((r1, spec["lon"]), (r2, spec["lat"])):
                     if r:
                         problems.append((line, spec["header"][i], fields[i], r))
@@ -313,7 +330,9 @@ def analyse(args, path, spec, records, blank):
             if problems:
                 bad.extend(problems)
                 continue
-            vals = [fields[i].strip() for i in spec["data"]] + [None] * (4 - len(spec["data"]))
+            numeric = NUMERIC_FORMS.get(spec["form"], 0)
+            vals = [number_text(fields[i], spec["decimal_comma"] and k < numeric) for k, i in enumerate(spec["data"])]
+            vals += [None] * (4 - len(spec["data"]))
             label = fields[spec["id"]].strip() if spec["id"] is not None else ""
             cp.write_row([line, grp, label or f"line {line}", *vals, lon, lat])
             loaded += 1
@@ -514,8 +533,9 @@ def parse_args(argv):
 def main(argv):
     args = parse_args(argv)
     try:
-        header, records, blank, _ = read_table(args.file)
+        header, records, blank, delim = read_table(args.file)
         spec = choose_columns(args.file, header, args)
+        spec["decimal_comma"] = delim != ","
         if not records:
             raise Fail(f"{args.file}: no data rows under the header", 1)
         if args.check_only:

@@ -202,6 +202,40 @@ with open(os.path.join(mout, "index.html")) as f:
     mh = f.read()
 check(n_diag == 11 and mh.count('class="event"') == 11, "mechanisms: a focal-sphere diagram per event, on the map too")
 
+# ---- a spreadsheet saved with semicolons and decimal commas ------------------------------
+# Spreadsheets in many locales write ";" between fields and "," as the decimal mark (and
+# often a byte-order mark and CRLF line ends). In such a file a number with a decimal comma
+# is read as a decimal point in the numeric columns; in a comma-separated file the same
+# quoted cell stays a bad value.
+eu_rows = []
+for j, m in enumerate(draw(S, 6, rng)):
+    st, dp, rk = (float(x) for x in m.split("/"))
+    eu_rows.append(("E%02d" % (j + 1), "%.2f" % st, "%.2f" % dp, "%.2f" % rk, "%.3f" % (10.0 + 0.011 * j), "%.3f" % (45.0 - 0.013 * j)))
+eu_csv = os.path.join(work, "semicolons.csv")
+with open(eu_csv, "wb") as f:
+    text = "event_id;region;strike;dip;rake;lon;lat\r\n" + "".join(
+        "%s;R1;%s;%s;%s;%s;%s\r\n" % tuple(v.replace(".", ",") if k else v for k, v in enumerate(r)) for r in eu_rows)
+    f.write(b"\xef\xbb\xbf" + text.encode())
+eout = os.path.join(work, "eu-out")
+rc, so, se = run([eu_csv, "--db", DB, "--out", eout, "--group", "region"])
+ok = rc == 0 and so.splitlines()[0].endswith(": 6 data rows: 6 analysed, 0 bad")
+check(ok, "decimal commas: a semicolon file with a BOM and CRLF, every row analysed"
+      + ("" if ok else " (exit %d: %r)" % (rc, (so + se)[:300])))
+if rc == 0:
+    ed = rows(os.path.join(eout, "data.csv"))
+    canon = query("SELECT f::fault_slip::text FROM unnest(ARRAY[%s]) WITH ORDINALITY u(f, k) ORDER BY k"
+                  % ",".join("'%s/%s/%s'" % r[1:4] for r in eu_rows))
+    check([r["fault_slip"] for r in ed] == [c[0] for c in canon],
+          "decimal commas: strike, dip and rake read as the same numbers with points (%s)" % ed[0]["fault_slip"])
+    check([(float(r["lon"]), float(r["lat"])) for r in ed] == [(float(r[4]), float(r[5])) for r in eu_rows],
+          "decimal commas: longitudes and latitudes read as the same numbers with points")
+comma_csv = os.path.join(work, "comma-decimal.csv")
+with open(comma_csv, "w") as f:
+    f.write("id,site,fault,lon,lat\n" + "".join('C%d,A,%s,10.0,"45,5"\n' % (j, g[2]) for j, g in enumerate(good[:5])))
+rc, so, se = run([comma_csv, "--db", DB, "--out", os.path.join(work, "comma-out")])
+check(rc == 1 and 'lat "45,5": latitude is not a number' in so,
+      "decimal commas: not read in a comma-separated file (the cell is a bad value there)")
+
 # ---- files the command refuses -----------------------------------------------------------
 binary = os.path.join(work, "photo.jpg")
 with open(binary, "wb") as f:
