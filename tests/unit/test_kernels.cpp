@@ -29,6 +29,13 @@ std::vector<SlipDatum> random_faults(int count, uint64_t seed) {
   return out;
 }
 
+// Each datum's 20 normal-equation terms (stress_contribution), the bootstrap's table.
+std::vector<double> term_table(const std::vector<SlipDatum> &data) {
+  std::vector<double> table(data.size() * 20);
+  for (size_t i = 0; i < data.size(); ++i) stress_contribution(data[i].n, data[i].u, &table[i * 20]);
+  return table;
+}
+
 // Faults in whole multiples of `step` degrees: their nodal planes pass exactly
 // (in exact arithmetic) through nodes of grids whose spacing divides the step,
 // e.g. the horizontal ring of every vertical fault and the poles of both
@@ -194,8 +201,7 @@ TEST(BootstrapSums, EveryPathEqualsTheOneResampleLoopBitForBit) {
   // 333 data (two blocks of 128 and a partial one), 7 resamples (pairs and a rest).
   const std::vector<SlipDatum> data = random_faults(333, 13);
   const size_t n = data.size();
-  std::vector<double> table(n * 20);
-  for (size_t i = 0; i < n; ++i) stress_contribution(data[i].n, data[i].u, &table[i * 20]);
+  const std::vector<double> table = term_table(data);
   const int m = 7;
   // The reference: the loop stress_bootstrap ran before the kernel, one
   // resample at a time: multiplicities from the same generator stream, then
@@ -281,8 +287,7 @@ TEST(BootstrapSums, DrawingTheNextBatchDuringTheSumsChangesNothing) {
   // as this one (the exact pass), smaller (the last batch), empty and larger.
   const std::vector<SlipDatum> data = random_faults(333, 17);
   const size_t n = data.size();
-  std::vector<double> table(n * 20);
-  for (size_t i = 0; i < n; ++i) stress_contribution(data[i].n, data[i].u, &table[i * 20]);
+  const std::vector<double> table = term_table(data);
   const int cur = 5;
   for (const int next : {5, 2, 0, 7}) {
     for (SimdPath p : kAllPaths) {
